@@ -1,0 +1,77 @@
+// The brake as exact solids (OpenCASCADE B-rep), behind a wall: this header uses standard types
+// only, so src/ and drawing/ headers never see an OCCT type. All lengths here are millimetres
+// (the CAD convention); the design model is SI, converted once in build_brake().
+#pragma once
+
+#include <array>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "src/design.hpp"
+#include "src/mechanics.hpp"
+
+namespace bandforge::geom {
+
+struct Vec3 {
+  double x = 0, y = 0, z = 0;
+};
+
+/// sRGB colour, components 0..1, written exactly into the STEP file.
+struct Rgb {
+  double r = 0, g = 0, b = 0;
+};
+
+/// One distinct part (a STEP product). Instances share the part's shape.
+struct PartInfo {
+  std::string name;          ///< readable product name, e.g. "DRUM", "PIN-D16"
+  std::string material;      ///< e.g. "cast-iron", "steel", "woven lining"
+  double density = 0;        ///< [kg/m³]
+  double volume = 0;         ///< one instance [mm³]
+  double mass = 0;           ///< one instance [kg]
+  Vec3 centroid;             ///< of the first instance, assembly coordinates [mm]
+  Rgb colour;
+  std::vector<std::string> instance_names;  ///< one per placement, e.g. "PIN-PIVOT"
+  std::vector<Vec3> instance_origins;       ///< placement of each instance [mm]
+};
+
+/// One interference or clearance finding between two parts.
+struct ContactCheck {
+  std::string part_a, part_b;
+  double common_volume = 0;  ///< [mm³] measured with a boolean common
+  double tolerance = 0;      ///< allowed common volume [mm³]
+  bool intended = false;     ///< an intended contact (band on drum, pin in hole)
+  bool ok = true;
+};
+
+struct BuildOptions {
+  bool released = false;  ///< band lifted by the radial clearance, lever rotated back
+};
+
+class BrakeModel {
+ public:
+  ~BrakeModel();
+  BrakeModel(BrakeModel&&) noexcept;
+  BrakeModel& operator=(BrakeModel&&) noexcept;
+
+  const std::vector<PartInfo>& parts() const;
+  const std::vector<ContactCheck>& contacts() const;
+  /// Every solid passed BRepCheck_Analyzer.
+  bool all_valid() const;
+
+  struct Impl;  // OCCT shapes; defined in geometry/occt_model.hpp (geometry/ and drawing/ only)
+  Impl& impl() const { return *impl_; }
+  explicit BrakeModel(std::unique_ptr<Impl> impl);
+
+ private:
+  std::unique_ptr<Impl> impl_;
+};
+
+/// Builds the solids where the mechanics put them. Throws BuildError (exit 3) naming the part
+/// and dimension when a part cannot be made; never lets an OCCT exception escape.
+BrakeModel build_brake(const Design& design, const Solution& solution, const BuildOptions& options);
+
+/// Writes an AP214 STEP assembly to `path` (reproducible bytes). Throws IoError / BuildError.
+void write_step(const BrakeModel& model, const Design& design, const std::string& path);
+
+}  // namespace bandforge::geom

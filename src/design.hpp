@@ -1,0 +1,162 @@
+// The design model: one band brake as read from a design file.
+// Plain values in SI units (m, N, Pa, rad, kg, s, J); absolute temperatures in °C.
+// Nothing here converts units: the reader (design_reader.cpp) does that once, at the border.
+#pragma once
+
+#include <map>
+#include <string>
+
+namespace bandforge {
+
+/// A point or vector in the front view: x right, y up, drum centre at the origin [m].
+struct Vec2 {
+  double x = 0.0;
+  double y = 0.0;
+};
+
+/// A rotation sense seen from the front (drum axis toward the viewer).
+enum class Turn { cw, ccw };
+
+/// Where a band end is attached.
+enum class Mount { lever, frame };
+
+/// How the two band tensions act on the lever.
+enum class BrakeKind { simple, differential, summing };
+
+/// Which tension model relates the band to the drum (REFERENCE §1.11).
+enum class TensionModel { thin, thick };
+
+/// Where a value came from in the design file, for error messages and traceability.
+struct SourcePos {
+  int line = 0;    ///< 1-based, 0 when unknown (defaults)
+  int column = 0;  ///< 1-based, 0 when unknown
+};
+
+/// Title-block data (ISO 7200 fields). Only `title` is required.
+struct Project {
+  std::string title;
+  std::string number = "BRAKE-1";  ///< identification number; also the output file stem
+  std::string revision;
+  std::string owner;
+  std::string creator;
+  std::string approver;
+  std::string date;  ///< ISO 8601 date of issue, e.g. "2026-11-30"
+};
+
+struct Drum {
+  double diameter = 0.0;       ///< friction surface diameter D = 2r [m]
+  double width = 0.0;          ///< face width of the rim [m]
+  double bore = 0.0;           ///< shaft bore [m]
+  Turn rotation = Turn::cw;    ///< the load's rotation that the brake must stop, seen from the front
+  std::string material;        ///< key into the drum material table
+  double density = 0.0;        ///< [kg/m³], from the table
+  double specific_heat = 0.0;  ///< [J/(kg·K)], from the table
+  std::string material_source; ///< where density and specific heat come from
+};
+
+struct Lining {
+  std::string material;             ///< key into the lining table, or "" for explicit values
+  double friction = 0.0;            ///< nominal coefficient of friction f
+  double friction_min = 0.0;        ///< lowest credible f
+  double friction_max = 0.0;        ///< highest credible f
+  double pressure_limit = 0.0;      ///< allowable lining pressure [Pa]
+  double temperature_limit = 0.0;   ///< maximum bulk temperature [°C]; 0 = not given
+  double power_limit = 0.0;         ///< power per lining area [W/m²]; 0 = not given
+  double thickness = 0.0;           ///< radial thickness; 0 = bare band [m]
+  std::string friction_source;      ///< source of the friction values
+  std::string pressure_source;      ///< source of the pressure limit
+  std::string temperature_source;   ///< source of the temperature limit
+  std::string power_source;         ///< source of the power limit
+};
+
+/// One end of the band: a pin on the lever or on the frame.
+struct BandEnd {
+  Mount mount = Mount::frame;
+  Vec2 at;  ///< pin centre [m]
+};
+
+struct Band {
+  double width = 0.0;             ///< steel band width b (the lining has the same width) [m]
+  double thickness = 0.0;         ///< steel band thickness t [m]
+  double allowable_stress = 0.0;  ///< allowable tensile stress, gross section [Pa]
+  Turn sense = Turn::ccw;         ///< the way the band runs from end A round the drum to end B
+  BandEnd end_a;
+  BandEnd end_b;
+  double pin_diameter = 0.0;         ///< band-end and pivot pin diameter [m]
+  double pin_allowable_shear = 0.0;  ///< allowable pin shear stress [Pa]; default σ_allow/√3
+  double clearance = 0.0;            ///< radial clearance when released [m]
+  TensionModel model = TensionModel::thin;
+};
+
+struct Lever {
+  Vec2 pivot;                     ///< pivot centre O [m]
+  Vec2 handle;                    ///< point H where the operator's force acts [m]
+  double width = 0.0;             ///< plate width (in the view plane) [m]
+  double thickness = 0.0;         ///< plate thickness (along the drum axis) [m]
+  double allowable_stress = 0.0;  ///< allowable bending stress [Pa]
+};
+
+/// What the brake must do. Exactly one of torque / lever_force is given.
+struct Load {
+  enum class Given { torque, lever_force };
+  Given given = Given::torque;
+  double torque = 0.0;          ///< required braking torque before the service factor [N·m]
+  double lever_force = 0.0;     ///< available operator force at the handle [N]
+  double service_factor = 1.0;  ///< multiplies the required torque
+};
+
+/// Optional thermal duty.
+struct Duty {
+  bool present = false;
+  double speed = 0.0;           ///< drum speed at the start of a stop [rad/s]
+  double inertia = 0.0;         ///< rotating inertia reflected to the drum shaft [kg·m²]
+  double hoist_mass = 0.0;      ///< lowered mass; 0 = no hoist [kg]
+  double hoist_speed = 0.0;     ///< load speed at the start of the stop [m/s]
+  double stop_distance = 0.0;   ///< load travel during the stop [m]
+  double rope_radius = 0.0;     ///< hoist rope radius on the brake shaft [m]
+  double stops_per_hour = 0.0;  ///< [1/h]
+  double ambient = 40.0;        ///< ambient temperature [°C]; default common practice
+};
+
+/// Early sizing without pin coordinates: arms as in textbook figures.
+struct Concept {
+  bool present = false;
+  BrakeKind kind = BrakeKind::simple;
+  double wrap = 0.0;        ///< wrap angle φ [rad]
+  double handle_arm = 0.0;  ///< perpendicular arm of the operator's force L [m]
+  double arm_a = 0.0;       ///< perpendicular arm of end A about the pivot [m]
+  double arm_b = 0.0;       ///< perpendicular arm of end B about the pivot [m]
+};
+
+/// Drawing options (used by drawing/).
+struct DrawingOptions {
+  std::string sheet;   ///< "A2", "A3", "A4"; "" = A3
+  int scale_num = 0;   ///< scale numerator, 0 = choose automatically
+  int scale_den = 0;   ///< scale denominator
+};
+
+struct Design {
+  std::string file;  ///< path the design was read from (for messages)
+  Project project;
+  Drum drum;
+  Lining lining;
+  Band band;
+  Lever lever;
+  Load load;
+  Duty duty;
+  Concept concept;  ///< present => no pin layout, no geometry
+  DrawingOptions drawing;
+  /// Where each key was read, by dotted path ("band.end_a.at" → line 27, column 9), so that
+  /// checks made after reading (the layout) can still point at the file.
+  std::map<std::string, SourcePos> where;
+};
+
+/// Throws a DesignError for `key` ("band.end_a.at"), using the position recorded in `where`.
+[[noreturn]] void design_fail(const Design& design, const std::string& key,
+                              const std::string& value, const std::string& problem);
+
+const char* to_string(Turn t);
+const char* to_string(Mount m);
+const char* to_string(BrakeKind k);
+
+}  // namespace bandforge

@@ -1,0 +1,1 @@
+#include "src/design_reader.hpp"

@@ -1,0 +1,26 @@
+#include "src/errors.hpp"
+
+namespace bandforge {
+namespace {
+
+std::string compose(const std::string& file, int line, int column, const std::string& key,
+                    const std::string& value, const std::string& problem) {
+  std::string where = file.empty() ? std::string("<design>") : file;
+  if (line > 0) {
+    where += ":" + std::to_string(line);
+    if (column > 0) where += ":" + std::to_string(column);
+  }
+  std::string what = key;
+  if (!value.empty()) what += " = " + value;
+  return where + ": " + (what.empty() ? "" : what + ": ") + problem;
+}
+
+}  // namespace
+
+DesignError::DesignError(std::string file, int line, int column, std::string key,
+                         std::string value, std::string problem)
+    : Error(Exit::bad_design, compose(file, line, column, key, value, problem)),
+      key_(std::move(key)),
+      line_(line) {}
+
+}  // namespace bandforge
