@@ -144,7 +144,7 @@ struct Design {
   Lever lever;
   Load load;
   Duty duty;
-  Concept concept;  ///< present => no pin layout, no geometry
+  Concept concept_arms;  ///< the [concept] block; present => no pin layout, no geometry
   DrawingOptions drawing;
   /// Where each key was read, by dotted path ("band.end_a.at" → line 27, column 9), so that
   /// checks made after reading (the layout) can still point at the file.
