@@ -5,14 +5,19 @@ namespace {
 
 std::string compose(const std::string& file, int line, int column, const std::string& key,
                     const std::string& value, const std::string& problem) {
-  std::string where = file.empty() ? std::string("<design>") : file;
+  std::string out = file.empty() ? std::string("<design>") : file;
   if (line > 0) {
-    where += ":" + std::to_string(line);
-    if (column > 0) where += ":" + std::to_string(column);
+    out.append(":").append(std::to_string(line));
+    if (column > 0) out.append(":").append(std::to_string(column));
   }
-  std::string what = key;
-  if (!value.empty()) what += " = " + value;
-  return where + ": " + (what.empty() ? "" : what + ": ") + problem;
+  out.append(": ");
+  if (!key.empty()) {
+    out.append(key);
+    if (!value.empty()) out.append(" = ").append(value);
+    out.append(": ");
+  }
+  out.append(problem);
+  return out;
 }
 
 }  // namespace

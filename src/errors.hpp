@@ -15,6 +15,7 @@ enum class Exit : int {
   cannot_build = 3,  ///< the parts, drawing or flat patterns cannot be made from a valid design
   io = 4,            ///< an input cannot be read or an output cannot be written
   internal = 5,      ///< a defect in bandforge: please report it
+  checks_failed = 6, ///< with --strict: the design solved but at least one check fails
 };
 
 class Error : public std::runtime_error {

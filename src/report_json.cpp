@@ -1,1 +1,143 @@
+// `solve --json`: one object, SI units, the unit as each key's suffix. The keys listed in
+// README.md "JSON output" are a contract with design-review tools: add keys, never rename.
+#include <cmath>
+
 #include "src/report.hpp"
+
+namespace bandforge {
+namespace {
+
+using nlohmann::json;
+
+constexpr double kPi = 3.14159265358979323846;
+
+json xy(const Vec2& v) { return json::array({v.x, v.y}); }
+
+json direction_json(const DirectionResult& d) {
+  return json{
+      {"friction", d.friction},
+      {"capstan_ratio", d.capstan_ratio},
+      {"tension_tight_N", d.tension_tight},
+      {"tension_slack_N", d.tension_slack},
+      {"torque_Nm", d.torque},
+      {"lever_force_N", d.lever_force},
+      {"actuating_moment_Nm", d.actuating_moment},
+      {"self_locking", d.self_locking},
+      {"pressure_max_Pa", d.pressure_max},
+      {"pressure_min_Pa", d.pressure_min},
+      {"pressure_mean_Pa", d.pressure_mean},
+      {"band_stress_Pa", d.band_stress},
+      {"pin_shear_Pa", d.pin_shear},
+      {"lever_moment_Nm", d.lever_moment},
+      {"lever_stress_Pa", d.lever_stress},
+      {"drum_load_N", xy(d.drum_load)},
+      {"pivot_reaction_N", xy(d.pivot_reaction)},
+  };
+}
+
+json end_json(const EndLayout& e, bool from_pins) {
+  json j{{"mount", to_string(e.mount)}, {"arm_m", std::fabs(from_pins ? e.arm : e.arm_applied)},
+         {"arm_applied_m", e.arm_applied}};
+  if (from_pins) {
+    j["pin_m"] = xy(e.pin);
+    j["tangent_point_m"] = xy(e.tangent_point);
+    j["tangent_angle_deg"] = e.tangent_angle * 180.0 / kPi;
+    j["free_length_m"] = e.free_length;
+    j["run_direction"] = xy(e.run_dir);
+  } else {
+    j["pin_m"] = nullptr;
+    j["tangent_point_m"] = nullptr;
+    j["tangent_angle_deg"] = nullptr;
+    j["free_length_m"] = nullptr;
+    j["run_direction"] = nullptr;
+  }
+  return j;
+}
+
+json direction_block(const Solution& s, int dir) {
+  json j = direction_json(s.results[dir][1]);
+  json by_f = json::array();
+  for (const auto& r : s.results[dir]) by_f.push_back(direction_json(r));
+  j["by_friction"] = by_f;  // f_min, f_nominal, f_max
+  return j;
+}
+
+}  // namespace
+
+nlohmann::json json_report(const Design& design, const Solution& s) {
+  const Layout& L = s.layout;
+  json j;
+  j["title"] = design.project.title;
+  j["number"] = design.project.number;
+  j["revision"] = design.project.revision;
+  j["kind"] = to_string(L.kind);
+  j["tension_model"] = design.band.model == TensionModel::thick ? "thick" : "thin";
+  j["wrap_angle_deg"] = L.wrap * 180.0 / kPi;
+  j["wrap_angle_rad"] = L.wrap;
+  j["capstan_ratio"] = s.nominal(s.primary_a_tight).capstan_ratio;
+  j["band_length_m"] = L.from_pins ? json(L.band_length) : json(nullptr);
+  j["self_lock_friction"] = s.self_lock_friction ? json(*s.self_lock_friction) : json(nullptr);
+  j["friction"] = {{"min", design.lining.friction_min},
+                   {"nominal", design.lining.friction},
+                   {"max", design.lining.friction_max}};
+  j["drum_radius_m"] = L.r;
+  j["band_radius_m"] = L.r_band;
+  j["handle_arm_m"] = L.handle_arm;
+  j["apply_sense"] = L.apply_sense > 0 ? "ccw" : "cw";
+  j["ends"] = {{"a", end_json(L.a, L.from_pins)}, {"b", end_json(L.b, L.from_pins)}};
+  j["primary"] = s.primary_a_tight ? "a_tight" : "b_tight";
+  j["drum_rotation"] = to_string(design.drum.rotation);
+  if (design.load.given == Load::Given::torque) {
+    j["given"] = "torque";
+    j["required_torque_Nm"] = s.required_torque;
+  } else {
+    j["given"] = "lever_force";
+    j["given_lever_force_N"] = s.given_force;
+  }
+  j["directions"] = {{"a_tight", direction_block(s, 0)}, {"b_tight", direction_block(s, 1)}};
+  j["capacity"] = {{"friction", s.capacity.friction},
+                   {"torque_band_Nm", s.capacity.torque_band},
+                   {"torque_pressure_Nm", s.capacity.torque_pressure},
+                   {"torque_Nm", s.capacity.torque}};
+  if (L.from_pins) {
+    j["release"] = {{"lever_rotation_deg", L.release_rotation * 180.0 / kPi},
+                    {"handle_travel_m", L.handle_travel}};
+  } else {
+    j["release"] = nullptr;
+  }
+  if (s.thermal.present) {
+    const Thermal& t = s.thermal;
+    j["thermal"] = {{"energy_per_stop_J", t.energy},
+                    {"stop_time_s", t.stop_time},
+                    {"rim_mass_kg", t.rim_mass},
+                    {"temperature_rise_K", t.temperature_rise},
+                    {"peak_temperature_C", t.peak_temperature},
+                    {"lining_area_m2", t.lining_area},
+                    {"power_density_mean_W_m2", t.power_density_mean},
+                    {"power_density_peak_W_m2", t.power_density_peak},
+                    {"mean_power_W", t.mean_power},
+                    {"hoist_torque_Nm", t.hoist_torque}};
+  } else {
+    j["thermal"] = nullptr;
+  }
+  json checks = json::array();
+  for (const Check& c : s.checks) {
+    checks.push_back({{"id", c.id},
+                      {"title", c.title},
+                      {"value", c.value},
+                      {"limit", c.limit},
+                      {"unit", c.unit},
+                      {"kind", c.upper ? "max" : "min"},
+                      {"ok", c.ok},
+                      {"source", c.source},
+                      {"governing_case", c.note}});
+  }
+  j["checks"] = checks;
+  j["warnings"] = s.warnings;
+  j["caution"] =
+      "Design aid only. A brake holds loads over people: check these results against the "
+      "applicable codes and have them approved by a licensed engineer.";
+  return j;
+}
+
+}  // namespace bandforge

@@ -1,1 +1,247 @@
+// The readable results table printed by `bandforge solve`.
+#include <cmath>
+#include <cstdio>
+#include <sstream>
+#include <string>
+#include <vector>
+
 #include "src/report.hpp"
+
+namespace bandforge {
+namespace {
+
+constexpr double kPi = 3.14159265358979323846;
+
+class Out {
+ public:
+  explicit Out(UnitSystem u) : units_(u) {}
+  std::string q(double v, Quantity k, int digits = 4) const {
+    return format_quantity(v, k, units_, digits);
+  }
+  std::string point(const Vec2& p) const {
+    return "(" + num(to_display(p.x, Quantity::length, units_)) + ", " +
+           num(to_display(p.y, Quantity::length, units_)) + ") " +
+           display_unit(Quantity::length, units_);
+  }
+  static std::string num(double v, int digits = 4) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.*g", digits, v == 0.0 ? 0.0 : v);
+    return buf;
+  }
+  void row(const std::string& label, const std::string& value) {
+    s_ << "  " << pad(label, 26) << value << '\n';
+  }
+  void heading(const std::string& h) { s_ << '\n' << h << '\n'; }
+  void line(const std::string& text) { s_ << text << '\n'; }
+  static std::string pad(const std::string& text, std::size_t width) {
+    // Width counted in code points so that "φ" or "Ø" do not shift the columns.
+    std::size_t cps = 0;
+    for (unsigned char c : text) cps += (c & 0xC0) != 0x80;
+    return cps >= width ? text + " " : text + std::string(width - cps, ' ');
+  }
+  std::string str() const { return s_.str(); }
+  UnitSystem units() const { return units_; }
+
+ private:
+  UnitSystem units_;
+  std::ostringstream s_;
+};
+
+std::string deg(double rad, int digits = 4) { return Out::num(rad * 180.0 / kPi, digits) + "°"; }
+
+void inputs(Out& o, const Design& d, const Solution& s) {
+  o.heading("Inputs");
+  const auto& dr = d.drum;
+  o.row("drum", "Ø" + o.q(dr.diameter, Quantity::length) + " × " + o.q(dr.width, Quantity::length) +
+                     " wide, bore Ø" + o.q(dr.bore, Quantity::length) + ", " + dr.material +
+                     "; load turns " + to_string(dr.rotation));
+  const auto& li = d.lining;
+  o.row("lining", (li.material.empty() ? std::string("explicit values") : li.material) + ", " +
+                      o.q(li.thickness, Quantity::length) + " thick");
+  o.row("friction f", Out::num(li.friction, 3) + " (range " + Out::num(li.friction_min, 3) + " … " +
+                          Out::num(li.friction_max, 3) + ")");
+  o.row("lining pressure limit", o.q(li.pressure_limit, Quantity::stress));
+  const auto& b = d.band;
+  o.row("band", o.q(b.width, Quantity::length) + " × " + o.q(b.thickness, Quantity::length) +
+                    ", allowable " + o.q(b.allowable_stress, Quantity::stress) + ", runs " +
+                    to_string(b.sense) + " from A to B" +
+                    (b.model == TensionModel::thick ? ", thick-band model" : ""));
+  if (s.layout.from_pins) {
+    o.row("end A", std::string(to_string(b.end_a.mount)) + " pin at " + o.point(b.end_a.at));
+    o.row("end B", std::string(to_string(b.end_b.mount)) + " pin at " + o.point(b.end_b.at));
+    o.row("pins", "Ø" + o.q(b.pin_diameter, Quantity::length) + ", allowable shear " +
+                      o.q(b.pin_allowable_shear, Quantity::stress));
+    o.row("lever", "pivot " + o.point(d.lever.pivot) + ", handle " + o.point(d.lever.handle));
+  } else {
+    const auto& c = d.concept_arms;
+    o.row("concept", std::string(to_string(c.kind)) + ", wrap " + deg(c.wrap) + ", handle arm " +
+                         o.q(c.handle_arm, Quantity::length) + ", arm A " +
+                         o.q(c.arm_a, Quantity::length) + ", arm B " +
+                         o.q(c.arm_b, Quantity::length));
+  }
+  if (d.lever.width > 0) {
+    o.row("lever section", o.q(d.lever.width, Quantity::length) + " × " +
+                               o.q(d.lever.thickness, Quantity::length) + ", allowable " +
+                               o.q(d.lever.allowable_stress, Quantity::stress));
+  }
+  if (d.load.given == Load::Given::torque) {
+    o.row("required torque", o.q(d.load.torque, Quantity::torque) + " × service factor " +
+                                 Out::num(d.load.service_factor, 3) + " = " +
+                                 o.q(s.required_torque, Quantity::torque));
+  } else {
+    o.row("available lever force", o.q(d.load.lever_force, Quantity::force));
+  }
+}
+
+void layout(Out& o, const Solution& s) {
+  const Layout& L = s.layout;
+  o.heading("Layout");
+  o.row("kind", to_string(L.kind));
+  o.row("wrap angle φ", deg(L.wrap) + " (" + Out::num(L.wrap, 5) + " rad)");
+  o.row("friction radius r", o.q(L.r, Quantity::length));
+  o.row("band line radius r_b", o.q(L.r_band, Quantity::length));
+  if (L.from_pins) {
+    o.row("band centreline length", o.q(L.band_length, Quantity::length));
+    for (int i = 0; i < 2; ++i) {
+      const EndLayout& e = i == 0 ? L.a : L.b;
+      const std::string n = i == 0 ? "A" : "B";
+      o.row("end " + n + " tangent point", o.point(e.tangent_point) + " at " + deg(e.tangent_angle));
+      o.row("end " + n + " free run", o.q(e.free_length, Quantity::length));
+      o.row("end " + n + " arm about pivot",
+            e.mount == Mount::frame
+                ? std::string("— (on the frame)")
+                : o.q(std::fabs(e.arm), Quantity::length) +
+                      (e.arm_applied > 0 ? " (tension helps apply)" : " (tension resists)"));
+    }
+    o.row("handle arm L", o.q(L.handle_arm, Quantity::length));
+    o.row("applying rotation", L.apply_sense > 0 ? "ccw" : "cw");
+    o.row("release", deg(L.release_rotation, 3) + " lever rotation, " +
+                         o.q(L.handle_travel, Quantity::length, 3) + " handle travel");
+  } else {
+    o.row("arm A / arm B", o.q(std::fabs(L.a.arm_applied), Quantity::length) + " / " +
+                               o.q(std::fabs(L.b.arm_applied), Quantity::length));
+    o.row("handle arm L", o.q(L.handle_arm, Quantity::length));
+  }
+}
+
+void results(Out& o, const Design& d, const Solution& s) {
+  const bool pa = s.primary_a_tight;
+  const DirectionResult& p = s.nominal(pa);
+  const DirectionResult& r = s.nominal(!pa);
+  const char* rot = to_string(d.drum.rotation);
+  const char* rev = d.drum.rotation == Turn::cw ? "ccw" : "cw";
+  o.heading("Results at nominal f = " + Out::num(d.lining.friction, 3));
+  o.line("  " + Out::pad("", 26) + Out::pad(std::string("design rotation (") + rot + ")", 24) +
+         "reverse (" + rev + ")");
+  o.line("  " + Out::pad("", 26) + Out::pad(pa ? "A tight, B slack" : "B tight, A slack", 24) +
+         (pa ? "B tight, A slack" : "A tight, B slack"));
+  auto both = [&](const std::string& label, const std::string& a, const std::string& b) {
+    o.line("  " + Out::pad(label, 26) + Out::pad(a, 24) + b);
+  };
+  both("capstan ratio P1/P2", Out::num(p.capstan_ratio), Out::num(r.capstan_ratio));
+  both("tight tension P1", o.q(p.tension_tight, Quantity::force), o.q(r.tension_tight, Quantity::force));
+  both("slack tension P2", o.q(p.tension_slack, Quantity::force), o.q(r.tension_slack, Quantity::force));
+  both("braking torque T", o.q(p.torque, Quantity::torque), o.q(r.torque, Quantity::torque));
+  auto force = [&](const DirectionResult& x) {
+    return x.self_locking ? std::string("0 (self-locking)") : o.q(x.lever_force, Quantity::force);
+  };
+  both("lever force F", force(p), force(r));
+  both("max lining pressure", o.q(p.pressure_max, Quantity::stress), o.q(r.pressure_max, Quantity::stress));
+  both("mean lining pressure", o.q(p.pressure_mean, Quantity::stress), o.q(r.pressure_mean, Quantity::stress));
+  both("band stress", o.q(p.band_stress, Quantity::stress), o.q(r.band_stress, Quantity::stress));
+  if (p.pin_shear > 0) both("pin shear", o.q(p.pin_shear, Quantity::stress), o.q(r.pin_shear, Quantity::stress));
+  if (p.lever_stress > 0)
+    both("lever bending stress", o.q(p.lever_stress, Quantity::stress), o.q(r.lever_stress, Quantity::stress));
+  if (s.layout.from_pins) {
+    auto mag = [&](const Vec2& v) { return o.q(std::hypot(v.x, v.y), Quantity::force); };
+    both("drum bearing load", mag(p.drum_load), mag(r.drum_load));
+    both("pivot reaction", mag(p.pivot_reaction), mag(r.pivot_reaction));
+  }
+
+  o.heading("Friction range, design rotation");
+  o.line("  " + Out::pad("", 26) + Out::pad("f_min " + Out::num(d.lining.friction_min, 3), 16) +
+         Out::pad("f_nom " + Out::num(d.lining.friction, 3), 16) + "f_max " +
+         Out::num(d.lining.friction_max, 3));
+  const auto& row = s.results[pa ? 0 : 1];
+  auto three = [&](const std::string& label, auto get) {
+    o.line("  " + Out::pad(label, 26) + Out::pad(get(row[0]), 16) + Out::pad(get(row[1]), 16) +
+           get(row[2]));
+  };
+  three("lever force F", [&](const DirectionResult& x) { return force(x); });
+  three("braking torque T", [&](const DirectionResult& x) { return o.q(x.torque, Quantity::torque); });
+  three("tight tension P1", [&](const DirectionResult& x) { return o.q(x.tension_tight, Quantity::force); });
+  three("max lining pressure", [&](const DirectionResult& x) { return o.q(x.pressure_max, Quantity::stress); });
+  o.row("self-locking friction",
+        s.self_lock_friction ? "f = " + Out::num(*s.self_lock_friction, 4) : std::string("none (cannot self-lock)"));
+  o.row("capacity at f_min", o.q(s.capacity.torque, Quantity::torque) + " (band stress " +
+                                 o.q(s.capacity.torque_band, Quantity::torque) + ", lining pressure " +
+                                 o.q(s.capacity.torque_pressure, Quantity::torque) + ")");
+}
+
+void thermal(Out& o, const Solution& s) {
+  if (!s.thermal.present) return;
+  const Thermal& t = s.thermal;
+  o.heading("Heat (per stop, design rotation)");
+  o.row("energy per stop", o.q(t.energy, Quantity::energy));
+  o.row("stop time", Out::num(t.stop_time, 3) + " s");
+  if (t.hoist_torque > 0) o.row("mean stopping torque", o.q(t.hoist_torque, Quantity::torque));
+  o.row("drum rim mass", o.q(t.rim_mass, Quantity::mass));
+  o.row("temperature rise", o.q(t.temperature_rise, Quantity::temperature_difference));
+  o.row("peak temperature", o.q(t.peak_temperature, Quantity::temperature));
+  o.row("power per lining area", o.q(t.power_density_mean, Quantity::power_density) + " mean, " +
+                                     o.q(t.power_density_peak, Quantity::power_density) + " peak");
+  if (t.mean_power > 0) o.row("mean power (duty)", o.q(t.mean_power, Quantity::power));
+}
+
+Quantity quantity_of_unit(const std::string& unit) {
+  if (unit == "Pa") return Quantity::stress;
+  if (unit == "N") return Quantity::force;
+  if (unit == "N*m" || unit == "N·m") return Quantity::torque;
+  if (unit == "m") return Quantity::length;
+  if (unit == "°C") return Quantity::temperature;
+  if (unit == "K") return Quantity::temperature_difference;
+  if (unit == "W/m^2" || unit == "W/m²") return Quantity::power_density;
+  return Quantity::dimensionless;
+}
+
+void checks(Out& o, const Solution& s) {
+  o.heading("Checks");
+  for (const Check& c : s.checks) {
+    const Quantity k = quantity_of_unit(c.unit);
+    auto show = [&](double v) {
+      return k == Quantity::dimensionless ? Out::num(v, 4) : o.q(v, k);
+    };
+    o.line(std::string("  ") + (c.ok ? "[ ok ] " : "[FAIL] ") + Out::pad(c.title, 36) +
+           Out::pad(show(c.value) + (c.upper ? " ≤ " : " ≥ ") + show(c.limit), 30) + c.note);
+    o.line("         limit: " + c.source);
+  }
+  if (!s.warnings.empty()) {
+    o.heading("Warnings");
+    for (const auto& w : s.warnings) o.line("  - " + w);
+  }
+}
+
+}  // namespace
+
+std::string text_report(const Design& design, const Solution& solution, UnitSystem units) {
+  Out o(units);
+  o.line("bandforge — " + design.project.title +
+         (design.project.number.empty() ? "" : " (" + design.project.number +
+                                                   (design.project.revision.empty() ? "" : " rev " + design.project.revision) + ")"));
+  if (!design.file.empty()) o.line("design file: " + design.file);
+  o.line("CAUTION: a design aid only. A brake holds loads over people: check these results against");
+  o.line("the applicable codes and have them approved by a licensed engineer.");
+  inputs(o, design, solution);
+  layout(o, solution);
+  results(o, design, solution);
+  thermal(o, solution);
+  checks(o, solution);
+  int failed = 0;
+  for (const Check& c : solution.checks) failed += c.ok ? 0 : 1;
+  o.heading(failed == 0 ? "All " + std::to_string(solution.checks.size()) + " checks pass."
+                        : std::to_string(failed) + " of " + std::to_string(solution.checks.size()) +
+                              " checks FAIL.");
+  return o.str();
+}
+
+}  // namespace bandforge

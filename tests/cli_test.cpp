@@ -1,1 +1,287 @@
+// The command line as a user meets it: exit statuses, messages that name the file, line and key,
+// the JSON contract, and every example solved. Runs the real executable.
 #include <gtest/gtest.h>
+#include <sys/wait.h>
+
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <sstream>
+#include <string>
+
+namespace fs = std::filesystem;
+
+namespace {
+
+struct Run {
+  int status = -1;
+  std::string out;
+  std::string err;
+};
+
+fs::path scratch() {
+  fs::path dir = fs::temp_directory_path() / ("bandforge-cli-" + std::to_string(::getpid()));
+  fs::create_directories(dir);
+  return dir;
+}
+
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+Run run(const std::string& args) {
+  const fs::path err = scratch() / "stderr.txt";
+  const std::string cmd = std::string(BANDFORGE_EXE) + " " + args + " 2>" + err.string();
+  Run r;
+  FILE* p = ::popen(cmd.c_str(), "r");
+  if (!p) return r;
+  char buf[4096];
+  std::size_t n;
+  while ((n = std::fread(buf, 1, sizeof buf, p)) > 0) r.out.append(buf, n);
+  const int st = ::pclose(p);
+  r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
+  r.err = slurp(err);
+  return r;
+}
+
+const fs::path kExample = fs::path(BANDFORGE_SOURCE_DIR) / "examples" / "bin-hoist.toml";
+
+// The bundled example with one piece of text replaced; the replaced text must exist.
+fs::path example_with(const std::string& from, const std::string& to, const std::string& name) {
+  std::string text = slurp(kExample);
+  const auto at = text.find(from);
+  EXPECT_NE(at, std::string::npos) << "example no longer contains: " << from;
+  if (at != std::string::npos) text.replace(at, from.size(), to);
+  const fs::path p = scratch() / (name + ".toml");
+  std::ofstream(p, std::ios::binary) << text;
+  return p;
+}
+
+int line_of(const fs::path& file, const std::string& needle) {
+  std::istringstream in(slurp(file));
+  std::string line;
+  for (int n = 1; std::getline(in, line); ++n)
+    if (line.find(needle) != std::string::npos) return n;
+  return 0;
+}
+
+// A bad design exits 2 and the message names the file, the key and (when given) the line.
+void expect_design_error(const fs::path& file, const std::string& key, int line,
+                         const std::string& also = "") {
+  const Run r = run("solve " + file.string());
+  EXPECT_EQ(r.status, 2) << r.err;
+  EXPECT_NE(r.err.find(file.string()), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find(key), std::string::npos) << "key '" << key << "' not named in: " << r.err;
+  if (line > 0) {
+    EXPECT_NE(r.err.find(":" + std::to_string(line) + ":"), std::string::npos)
+        << "line " << line << " not named in: " << r.err;
+  }
+  if (!also.empty()) EXPECT_NE(r.err.find(also), std::string::npos) << r.err;
+  EXPECT_TRUE(r.out.empty()) << "a failed solve printed results: " << r.out;
+}
+
+}  // namespace
+
+TEST(Cli, ExampleSolvesAndPrintsTheCaution) {
+  const Run r = run("solve " + kExample.string());
+  ASSERT_EQ(r.status, 0) << r.err;
+  EXPECT_NE(r.out.find("licensed engineer"), std::string::npos);
+  EXPECT_NE(r.out.find("wrap angle"), std::string::npos);
+}
+
+TEST(Cli, UsUnitsShowInchesAndPoundForce) {
+  const Run r = run("solve --units us " + kExample.string());
+  ASSERT_EQ(r.status, 0) << r.err;
+  EXPECT_NE(r.out.find(" in"), std::string::npos);
+  EXPECT_NE(r.out.find("lbf"), std::string::npos);
+  EXPECT_NE(r.out.find("psi"), std::string::npos);
+}
+
+TEST(Cli, JsonCarriesTheContractKeys) {
+  const Run r = run("solve --json " + kExample.string());
+  ASSERT_EQ(r.status, 0) << r.err;
+  const auto j = nlohmann::json::parse(r.out);
+  for (const char* k : {"kind", "wrap_angle_deg", "capstan_ratio", "band_length_m",
+                        "self_lock_friction", "ends", "primary", "directions", "checks"})
+    EXPECT_TRUE(j.contains(k)) << k;
+  for (const char* e : {"a", "b"})
+    for (const char* k : {"mount", "tangent_point_m", "free_length_m", "arm_m"})
+      EXPECT_TRUE(j["ends"][e].contains(k)) << e << "." << k;
+  for (const char* d : {"a_tight", "b_tight"})
+    for (const char* k : {"tension_tight_N", "tension_slack_N", "torque_Nm", "lever_force_N",
+                          "self_locking", "pressure_max_Pa", "band_stress_Pa"})
+      EXPECT_TRUE(j["directions"][d].contains(k)) << d << "." << k;
+  ASSERT_TRUE(j["checks"].is_array());
+  ASSERT_FALSE(j["checks"].empty());
+  for (const auto& c : j["checks"])
+    for (const char* k : {"id", "value", "limit", "unit", "ok", "source"})
+      EXPECT_TRUE(c.contains(k)) << k;
+  // The bin hoist is a simple brake with end A on the frame, turning cw with a cw band: A is tight
+  // (REFERENCE §1.8 step 6: ω_s = s).
+  EXPECT_EQ(j["kind"], "simple");
+  EXPECT_EQ(j["primary"], "a_tight");
+  // Capstan relation holds in the output: P1/P2 = capstan_ratio (REFERENCE §1.1).
+  const auto& p = j["directions"]["a_tight"];
+  EXPECT_NEAR(p["tension_tight_N"].get<double>() / p["tension_slack_N"].get<double>(),
+              j["capstan_ratio"].get<double>(), 1e-9);
+}
+
+TEST(Cli, EveryExampleSolves) {
+  int n = 0;
+  for (const auto& entry : fs::directory_iterator(fs::path(BANDFORGE_SOURCE_DIR) / "examples")) {
+    if (entry.path().extension() != ".toml") continue;
+    ++n;
+    const Run r = run("solve --json " + entry.path().string());
+    EXPECT_EQ(r.status, 0) << entry.path() << ": " << r.err;
+    if (r.status != 0) continue;
+    const auto j = nlohmann::json::parse(r.out);
+    EXPECT_GT(j["wrap_angle_deg"].get<double>(), 0.0) << entry.path();
+    for (const auto& c : j["checks"])
+      EXPECT_TRUE(c["ok"].get<bool>()) << entry.path() << ": example fails check " << c["id"];
+  }
+  EXPECT_GE(n, 3);
+}
+
+TEST(Cli, StarterDesignSolves) {
+  const Run made = run("new");
+  ASSERT_EQ(made.status, 0) << made.err;
+  const fs::path p = scratch() / "starter.toml";
+  std::ofstream(p, std::ios::binary) << made.out;
+  const Run r = run("solve " + p.string());
+  EXPECT_EQ(r.status, 0) << r.err;
+}
+
+TEST(Cli, MaterialsListsSources) {
+  const Run r = run("materials");
+  ASSERT_EQ(r.status, 0) << r.err;
+  EXPECT_NE(r.out.find("woven"), std::string::npos);
+  EXPECT_NE(r.out.find("cast-iron"), std::string::npos);
+  EXPECT_NE(r.out.find("Juvinall"), std::string::npos);
+}
+
+TEST(CliExit, UnreadableFileIsStatus4) {
+  const Run r = run("solve /nonexistent/brake.toml");
+  EXPECT_EQ(r.status, 4) << r.err;
+  EXPECT_NE(r.err.find("/nonexistent/brake.toml"), std::string::npos);
+}
+
+TEST(CliExit, BadCommandLineIsStatus1) {
+  EXPECT_EQ(run("solve --units metric " + kExample.string()).status, 1);
+  EXPECT_EQ(run("frobnicate").status, 1);
+}
+
+// One test per mistake of the foundation issue, §5.
+TEST(BadInput, MissingKey) {
+  const auto p = example_with("thickness = \"3 mm\"\n", "", "missing");
+  expect_design_error(p, "thickness", line_of(p, "[band]"), "band");
+}
+
+TEST(BadInput, UnknownKeySuggestsNearest) {
+  const auto p = example_with("thickness = \"3 mm\"", "thicknes = \"3 mm\"", "unknown");
+  expect_design_error(p, "thicknes", line_of(p, "thicknes ="), "thickness");
+}
+
+TEST(BadInput, LengthGivenInNewtons) {
+  const auto p = example_with("thickness = \"3 mm\"", "thickness = \"3 N\"", "units");
+  expect_design_error(p, "band.thickness", line_of(p, "\"3 N\""), "length");
+}
+
+TEST(BadInput, BareNumberForADimensionedValue) {
+  const auto p = example_with("diameter = \"400 mm\"", "diameter = 400", "bare");
+  expect_design_error(p, "drum.diameter", line_of(p, "diameter = 400"), "mm");
+}
+
+TEST(BadInput, NegativeSize) {
+  const auto p = example_with("diameter = \"400 mm\"", "diameter = \"-400 mm\"", "negative");
+  expect_design_error(p, "drum.diameter", line_of(p, "-400 mm"), "-400 mm");
+}
+
+TEST(BadInput, ZeroSize) {
+  const auto p = example_with("width = \"80 mm\"", "width = \"0 mm\"", "zero");
+  expect_design_error(p, "band.width", line_of(p, "\"0 mm\""));
+}
+
+TEST(BadInput, FrictionOutsideZeroToOne) {
+  const auto p = example_with("material = \"woven\"", "material = \"woven\"\nfriction = 1.2", "friction");
+  expect_design_error(p, "lining.friction", line_of(p, "friction = 1.2"), "1.2");
+}
+
+TEST(BadInput, PinInsideTheBandCircle) {
+  const auto p = example_with("at = [\"60 mm\", \"-300 mm\"]", "at = [\"60 mm\", \"-150 mm\"]", "inside");
+  expect_design_error(p, "band.end_b", line_of(p, "-150 mm"));
+}
+
+TEST(BadInput, PinTooCloseToTheBandCircle) {
+  // r_b = 200 + 5 + 1.5 = 206.5 mm; a pin 210 mm from the centre leaves no room for a Ø16 loop.
+  const auto p = example_with("at = [\"60 mm\", \"-300 mm\"]", "at = [\"0 mm\", \"-210 mm\"]", "close");
+  expect_design_error(p, "band.end_b", line_of(p, "-210 mm"));
+}
+
+TEST(BadInput, BothEndsOnTheFrame) {
+  const auto p = example_with("mount = \"lever\"", "mount = \"frame\"", "frame");
+  expect_design_error(p, "band.end", 0, "lever");
+}
+
+TEST(BadInput, WrapAngleNearZero) {
+  // Pins placed so that the tangent points (nearly) coincide: with s = -1 the wrap is
+  // 360° - (ψ_A - ψ_B - α_A - α_B) ... here 1° (hand computation: α = acos(206.5/305.9) = 47.54°
+  // for both pins, ψ_A = 0°, ψ_B = -96°).
+  std::string a = "at = [\"305.9 mm\", \"0 mm\"]";
+  std::string b = "at = [\"-31.98 mm\", \"-304.22 mm\"]";  // 305.9 mm at -96°
+  auto p = example_with("at = [\"-60 mm\", \"-300 mm\"]", a, "wrap0a");
+  std::string text = slurp(p);
+  text.replace(text.find("at = [\"60 mm\", \"-300 mm\"]"), 25, b);
+  std::ofstream(p, std::ios::binary) << text;
+  const Run r = run("solve " + p.string());
+  EXPECT_EQ(r.status, 2) << r.err;
+  EXPECT_NE(r.err.find("wrap"), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find("band."), std::string::npos) << r.err;
+}
+
+TEST(BadInput, RunsThatCross) {
+  // Sense reversed: end A (left) would run to a tangent point on the right and end B to the left.
+  const auto p = example_with("sense = \"cw\"", "sense = \"ccw\"", "cross");
+  expect_design_error(p, "band.", 0, "cross");
+}
+
+TEST(BadInput, LeverThatDoesNotTightenTheBand) {
+  // Pivot on the line of end B's run: the band tension has no arm about the pivot.
+  // Run B leaves B = (60, -300) toward its tangent point; the bin-hoist run direction is
+  // u = (0.517155, 0.855892) (hand computation of REFERENCE §1.8 steps 2-4 for this layout).
+  const auto p = example_with("pivot = [\"-110 mm\", \"-300 mm\"]",
+                              "pivot = [\"8.2845 mm\", \"-385.5892 mm\"]", "zeroarm");
+  expect_design_error(p, "lever.pivot", line_of(p, "8.2845 mm"));
+}
+
+TEST(BadInput, HandleAtThePivot) {
+  const auto p = example_with("handle = [\"700 mm\", \"-300 mm\"]", "handle = [\"-110 mm\", \"-300 mm\"]", "handle");
+  expect_design_error(p, "lever.handle", line_of(p, "handle ="));
+}
+
+TEST(BadInput, TomlSyntaxError) {
+  const auto p = example_with("width = \"80 mm\"", "width = \"80 mm", "syntax");
+  const Run r = run("solve " + p.string());
+  EXPECT_EQ(r.status, 2) << r.err;
+  EXPECT_NE(r.err.find(p.string() + ":" + std::to_string(line_of(p, "width = \"80 mm"))), std::string::npos) << r.err;
+}
+
+TEST(BadInput, TorqueAndLeverForceBothGiven) {
+  const auto p = example_with("service_factor = 1.25", "service_factor = 1.25\nlever_force = \"200 N\"", "both");
+  expect_design_error(p, "lever_force", 0, "torque");
+}
+
+TEST(BadInput, GarbageNeverCrashes) {
+  const fs::path p = scratch() / "garbage.toml";
+  std::string junk;
+  for (int i = 0; i < 4096; ++i) junk.push_back(static_cast<char>((i * 7919) % 256));
+  std::ofstream(p, std::ios::binary) << junk;
+  const Run r = run("solve " + p.string());
+  EXPECT_EQ(r.status, 2) << r.err;
+  const fs::path empty = scratch() / "empty.toml";
+  std::ofstream(empty, std::ios::binary) << "";
+  EXPECT_EQ(run("solve " + empty.string()).status, 2);
+}
