@@ -1,0 +1,273 @@
+#include "drawing/canvas.hpp"
+
+#include <hpdf.h>
+
+#include <cmath>
+#include <cstdio>
+#include <numbers>
+
+#include "src/errors.hpp"
+
+#ifndef BANDFORGE_FONT_FILE
+#define BANDFORGE_FONT_FILE "/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf"
+#endif
+
+namespace bandforge::drawing {
+namespace {
+
+constexpr double kPt = 72.0 / 25.4;        // points per millimetre
+constexpr double kCapHeight = 0.729;       // DejaVu Sans capital height per em (729/1000)
+
+// libharu keeps the first error and refuses everything after it, so the handler only records;
+// the checks below turn the record into an exception at the call that failed (throwing through
+// libharu's C frames would not unwind safely).
+struct ErrorState {
+  HPDF_STATUS code = 0;
+  HPDF_STATUS detail = 0;
+};
+
+void on_error(HPDF_STATUS code, HPDF_STATUS detail, void* user) {
+  auto* e = static_cast<ErrorState*>(user);
+  if (e->code == 0) {
+    e->code = code;
+    e->detail = detail;
+  }
+}
+
+// Dash patterns in whole points (libharu takes HPDF_UINT16, rejects zero-length elements).
+// Element lengths after ISO 128 with d = 0.25 mm: dash 12d = 3 mm ≈ 9 pt, gap 3d ≈ 2 pt,
+// long dash 24d = 6 mm ≈ 17 pt; the dot is the shortest libharu allows, 1 pt.
+const HPDF_UINT16 kDashed[] = {9, 3};
+const HPDF_UINT16 kChain[] = {17, 3, 1, 3};
+const HPDF_UINT16 kPhantom[] = {17, 3, 1, 3, 1, 3};
+
+}  // namespace
+
+struct Canvas::Impl {
+  ErrorState err;
+  HPDF_Doc doc = nullptr;
+  HPDF_Page page = nullptr;
+  HPDF_Font font = nullptr;
+  int page_count = 0;
+
+  void check(HPDF_STATUS status, const char* what) const {
+    if (status == HPDF_OK && err.code == 0) return;
+    char buf[160];
+    std::snprintf(buf, sizeof buf, "PDF drawing: libharu failed while %s (error 0x%04X, detail %u)",
+                  what, static_cast<unsigned>(err.code ? err.code : status),
+                  static_cast<unsigned>(err.detail));
+    throw BuildError(buf);
+  }
+  template <class H>
+  H check_handle(H h, const char* what) const {
+    if (h == nullptr || err.code != 0) check(HPDF_ERROR_DETECTED, what);
+    return h;
+  }
+  HPDF_Page need_page() const {
+    if (!page) throw BuildError("PDF drawing: internal error: drawing before the first page");
+    return page;
+  }
+  static float pt(double mm) { return static_cast<float>(mm * kPt); }
+  double font_size(double h) const { return h / kCapHeight * kPt; }
+};
+
+Canvas::Canvas() : impl_(std::make_unique<Impl>()) {
+  auto& m = *impl_;
+  m.doc = HPDF_New(on_error, &m.err);
+  if (!m.doc) throw BuildError("PDF drawing: libharu could not create a document (out of memory?)");
+  m.check(HPDF_SetCompressionMode(m.doc, HPDF_COMP_ALL), "setting compression");
+  m.check(HPDF_UseUTFEncodings(m.doc), "enabling UTF-8 encodings");
+  m.check(HPDF_SetCurrentEncoder(m.doc, "UTF-8"), "selecting the UTF-8 encoder");
+  const char* name = HPDF_LoadTTFontFromFile(m.doc, BANDFORGE_FONT_FILE, HPDF_TRUE);
+  if (!name || m.err.code != 0) {
+    throw BuildError(std::string("PDF drawing: cannot load the font ") + BANDFORGE_FONT_FILE +
+                     " (install the Debian package fonts-dejavu-core)");
+  }
+  m.font = m.check_handle(HPDF_GetFont(m.doc, name, "UTF-8"), "selecting the font");
+}
+
+Canvas::~Canvas() {
+  if (impl_ && impl_->doc) HPDF_Free(impl_->doc);
+}
+
+void Canvas::set_title(const std::string& title, const std::string& author,
+                       const std::string& subject) {
+  auto& m = *impl_;
+  // Only text fields: no creation or modification date, so equal input gives equal bytes.
+  m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_CREATOR, "bandforge"), "writing document info");
+  if (!title.empty()) m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_TITLE, title.c_str()), "writing the title");
+  if (!author.empty()) m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_AUTHOR, author.c_str()), "writing the author");
+  if (!subject.empty()) m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_SUBJECT, subject.c_str()), "writing the subject");
+}
+
+void Canvas::new_page(double width_mm, double height_mm) {
+  auto& m = *impl_;
+  m.page = m.check_handle(HPDF_AddPage(m.doc), "adding a page");
+  m.check(HPDF_Page_SetWidth(m.page, Impl::pt(width_mm)), "setting the page width");
+  m.check(HPDF_Page_SetHeight(m.page, Impl::pt(height_mm)), "setting the page height");
+  m.check(HPDF_Page_SetLineCap(m.page, HPDF_BUTT_END), "setting the line cap");
+  m.check(HPDF_Page_SetLineJoin(m.page, HPDF_ROUND_JOIN), "setting the line join");
+  ++m.page_count;
+}
+
+void Canvas::pen(Pen p, Ink ink) {
+  auto& m = *impl_;
+  HPDF_Page pg = m.need_page();
+  double width = 0.25;
+  const HPDF_UINT16* dash = nullptr;
+  HPDF_UINT n = 0;
+  switch (p) {
+    case Pen::frame: width = 0.7; break;
+    case Pen::wide: width = 0.5; break;
+    case Pen::narrow: width = 0.25; break;
+    case Pen::hidden: width = 0.25; dash = kDashed; n = 2; break;
+    case Pen::centre: width = 0.25; dash = kChain; n = 4; break;
+    case Pen::phantom: width = 0.25; dash = kPhantom; n = 6; break;
+    case Pen::fine: width = 0.18; break;
+    case Pen::plot: width = 0.35; break;
+    case Pen::plot_dashed: width = 0.35; dash = kDashed; n = 2; break;
+  }
+  m.check(HPDF_Page_SetLineWidth(pg, Impl::pt(width)), "setting a line width");
+  m.check(HPDF_Page_SetDash(pg, dash, n, 0), "setting a dash pattern");
+  m.check(HPDF_Page_SetRGBStroke(pg, static_cast<float>(ink.r), static_cast<float>(ink.g),
+                                 static_cast<float>(ink.b)),
+          "setting the stroke colour");
+}
+
+void Canvas::line(Pt a, Pt b) { polyline({a, b}); }
+
+void Canvas::polyline(const std::vector<Pt>& pts) {
+  if (pts.size() < 2) return;  // never stroke an empty path: the error would stick
+  auto& m = *impl_;
+  HPDF_Page pg = m.need_page();
+  m.check(HPDF_Page_MoveTo(pg, Impl::pt(pts[0].x), Impl::pt(pts[0].y)), "starting a line");
+  for (size_t i = 1; i < pts.size(); ++i) {
+    m.check(HPDF_Page_LineTo(pg, Impl::pt(pts[i].x), Impl::pt(pts[i].y)), "drawing a line");
+  }
+  m.check(HPDF_Page_Stroke(pg), "stroking a line");
+}
+
+namespace {
+
+// Cubic Bézier segments (at most 90° each) approximating the arc; the standard control-point
+// distance k = 4/3·tan(Δ/4) keeps the radial error below 3e-4·r.
+template <class Fn>
+void bezier_arc(Pt c, double r, double a0, double a1, Fn&& curve_to) {
+  const double sweep = a1 - a0;
+  const int n = std::max(1, static_cast<int>(std::ceil(std::abs(sweep) / (std::numbers::pi / 2) - 1e-9)));
+  const double d = sweep / n;
+  const double k = 4.0 / 3.0 * std::tan(d / 4.0);
+  for (int i = 0; i < n; ++i) {
+    const double t0 = a0 + i * d, t1 = t0 + d;
+    const Pt p0{c.x + r * std::cos(t0), c.y + r * std::sin(t0)};
+    const Pt p3{c.x + r * std::cos(t1), c.y + r * std::sin(t1)};
+    const Pt p1{p0.x - k * r * std::sin(t0), p0.y + k * r * std::cos(t0)};
+    const Pt p2{p3.x + k * r * std::sin(t1), p3.y - k * r * std::cos(t1)};
+    curve_to(p1, p2, p3);
+  }
+}
+
+}  // namespace
+
+void Canvas::arc(Pt c, double r, double a0, double a1) {
+  if (r <= 0 || a1 == a0) return;
+  auto& m = *impl_;
+  HPDF_Page pg = m.need_page();
+  m.check(HPDF_Page_MoveTo(pg, Impl::pt(c.x + r * std::cos(a0)), Impl::pt(c.y + r * std::sin(a0))),
+          "starting an arc");
+  bezier_arc(c, r, a0, a1, [&](Pt p1, Pt p2, Pt p3) {
+    m.check(HPDF_Page_CurveTo(pg, Impl::pt(p1.x), Impl::pt(p1.y), Impl::pt(p2.x), Impl::pt(p2.y),
+                              Impl::pt(p3.x), Impl::pt(p3.y)),
+            "drawing an arc");
+  });
+  m.check(HPDF_Page_Stroke(pg), "stroking an arc");
+}
+
+void Canvas::circle(Pt c, double r) { arc(c, r, 0, 2 * std::numbers::pi); }
+
+void Canvas::rect(const Box& b) {
+  polyline({{b.x0, b.y0}, {b.x1, b.y0}, {b.x1, b.y1}, {b.x0, b.y1}, {b.x0, b.y0}});
+}
+
+void Canvas::fill_rect(const Box& b, Ink ink) {
+  fill_polygon({{b.x0, b.y0}, {b.x1, b.y0}, {b.x1, b.y1}, {b.x0, b.y1}}, ink);
+}
+
+void Canvas::fill_polygon(const std::vector<Pt>& pts, Ink ink) {
+  if (pts.size() < 3) return;
+  auto& m = *impl_;
+  HPDF_Page pg = m.need_page();
+  m.check(HPDF_Page_SetRGBFill(pg, static_cast<float>(ink.r), static_cast<float>(ink.g),
+                               static_cast<float>(ink.b)),
+          "setting the fill colour");
+  m.check(HPDF_Page_MoveTo(pg, Impl::pt(pts[0].x), Impl::pt(pts[0].y)), "starting a fill");
+  for (size_t i = 1; i < pts.size(); ++i) {
+    m.check(HPDF_Page_LineTo(pg, Impl::pt(pts[i].x), Impl::pt(pts[i].y)), "outlining a fill");
+  }
+  m.check(HPDF_Page_ClosePath(pg), "closing a fill");
+  m.check(HPDF_Page_Fill(pg), "filling");
+}
+
+void Canvas::fill_circle(Pt c, double r, Ink ink) {
+  auto& m = *impl_;
+  HPDF_Page pg = m.need_page();
+  m.check(HPDF_Page_SetRGBFill(pg, static_cast<float>(ink.r), static_cast<float>(ink.g),
+                               static_cast<float>(ink.b)),
+          "setting the fill colour");
+  m.check(HPDF_Page_MoveTo(pg, Impl::pt(c.x + r), Impl::pt(c.y)), "starting a dot");
+  bezier_arc(c, r, 0, 2 * std::numbers::pi, [&](Pt p1, Pt p2, Pt p3) {
+    m.check(HPDF_Page_CurveTo(pg, Impl::pt(p1.x), Impl::pt(p1.y), Impl::pt(p2.x), Impl::pt(p2.y),
+                              Impl::pt(p3.x), Impl::pt(p3.y)),
+            "drawing a dot");
+  });
+  m.check(HPDF_Page_Fill(pg), "filling a dot");
+}
+
+double Canvas::text_width(std::string_view utf8, double h) const {
+  if (utf8.empty()) return 0;
+  const auto& m = *impl_;
+  const HPDF_TextWidth w = HPDF_Font_TextWidth(
+      m.font, reinterpret_cast<const HPDF_BYTE*>(utf8.data()), static_cast<HPDF_UINT>(utf8.size()));
+  m.check(HPDF_OK, "measuring text");
+  return w.width / 1000.0 * h / kCapHeight;
+}
+
+void Canvas::text(Pt at, std::string_view utf8, double h, Align align, double angle, Ink ink) {
+  if (utf8.empty()) return;
+  auto& m = *impl_;
+  HPDF_Page pg = m.need_page();
+  double shift = 0;
+  if (align != Align::left) {
+    shift = text_width(utf8, h) * (align == Align::centre ? 0.5 : 1.0);
+  }
+  const double c = std::cos(angle), s = std::sin(angle);
+  const Pt origin{at.x - shift * c, at.y - shift * s};
+  const std::string str(utf8);
+  m.check(HPDF_Page_SetRGBFill(pg, static_cast<float>(ink.r), static_cast<float>(ink.g),
+                               static_cast<float>(ink.b)),
+          "setting the text colour");
+  m.check(HPDF_Page_BeginText(pg), "beginning text");
+  m.check(HPDF_Page_SetFontAndSize(pg, m.font, static_cast<float>(m.font_size(h))), "setting the font");
+  m.check(HPDF_Page_SetTextMatrix(pg, static_cast<float>(c), static_cast<float>(s),
+                                  static_cast<float>(-s), static_cast<float>(c),
+                                  Impl::pt(origin.x), Impl::pt(origin.y)),
+          "placing text");
+  m.check(HPDF_Page_ShowText(pg, str.c_str()), "writing text");
+  m.check(HPDF_Page_EndText(pg), "ending text");
+}
+
+std::vector<unsigned char> Canvas::finish() {
+  auto& m = *impl_;
+  m.check(HPDF_SaveToStream(m.doc), "writing the PDF");
+  HPDF_UINT32 size = HPDF_GetStreamSize(m.doc);
+  std::vector<unsigned char> bytes(size);
+  HPDF_UINT32 got = size;
+  m.check(HPDF_ReadFromStream(m.doc, bytes.data(), &got), "reading the PDF back");
+  if (got != size) throw BuildError("PDF drawing: libharu returned a short PDF stream");
+  HPDF_Free(m.doc);
+  m.doc = nullptr;
+  m.page = nullptr;
+  return bytes;
+}
+
+}  // namespace bandforge::drawing

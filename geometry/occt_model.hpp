@@ -1,0 +1,85 @@
+// The OpenCASCADE side of BrakeModel. Included only by geometry/*.cpp and drawing/*.cpp: it is the
+// one place where OCCT types meet the brake. Keep it stable: drawing/projection.{hpp,cpp} builds
+// its hidden-line views on `placed()`.
+//
+// Coordinates [mm], the front view of the design file: x right, y up, drum centre at the origin,
+// drum axis = z toward the viewer (the front view looks along −z). Along z (AxialLayout below):
+//   - drum, band and lining are centred on z = 0, the band mid-plane;
+//   - the lever plate sits in front of the band (z > b/2) with an axial gap; when the drum is
+//     wider than the band, the lever lies inside the drum's axial extent, so a lever whose outline
+//     crosses the drum circle in the front view interferes with the drum (REFERENCE §1.9: the
+//     lever must clear the drum) and the build is rejected;
+//   - the frame anchors (one lug per frame-mounted pin, the pivot included) sit behind the band
+//     (z < −b/2) with the same gap;
+//   - pins run along z through the band eyes, the lever and the anchors.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include <TopoDS_Shape.hxx>
+#include <gp_Trsf.hxx>
+
+#include "geometry/brake_model.hpp"
+
+namespace bandforge::geom {
+
+/// What a part is, so that views and reports can style it (e.g. draw pins with centre lines).
+enum class PartKind { drum, lining, band, lever, grip, pin, anchor };
+
+const char* to_string(PartKind kind);
+
+/// Axial (z) positions of the plates [mm]; band mid-plane at z = 0. front > back.
+struct AxialLayout {
+  double drum_back = 0, drum_front = 0;      ///< drum rim and hub faces (±w/2)
+  double band_back = 0, band_front = 0;      ///< band and lining (±b/2)
+  double lever_back = 0, lever_front = 0;    ///< lever plate
+  double anchor_back = 0, anchor_front = 0;  ///< frame anchor lugs
+  double grip_front = 0;                     ///< front end of the handle grip
+  double gap = 0;                            ///< axial gap between band and lever / anchors
+  double pin_overhang = 0;                   ///< pin length beyond the outer plate at each end
+};
+
+struct BrakeModel::Impl {
+  /// One distinct part (one STEP product). parts[i] belongs with infos[i].
+  struct Part {
+    PartKind kind = PartKind::drum;
+    TopoDS_Shape shape;  ///< a single valid solid in part coordinates [mm]
+  };
+  /// One placement of a part (one STEP instance, NAUO).
+  struct Instance {
+    std::size_t part = 0;  ///< index into parts / infos
+    std::string name;      ///< unique instance name, e.g. "PIN-PIVOT", "ANCHOR-A"
+    gp_Trsf placement;     ///< part coordinates → assembly coordinates (rigid, no scale)
+  };
+  /// A solid where it sits in the assembly, for hidden-line views and interference checks.
+  struct Placed {
+    TopoDS_Shape shape;     ///< the part's shape moved by the instance placement
+    std::size_t part = 0;   ///< index into parts / infos
+    std::size_t instance = 0;  ///< index into instances
+  };
+
+  std::vector<Part> parts;
+  std::vector<PartInfo> infos;  ///< same order as parts; what BrakeModel::parts() returns
+  std::vector<Instance> instances;
+  std::vector<ContactCheck> contacts;
+  bool valid = true;  ///< every solid passed BRepCheck_Analyzer
+
+  bool released = false;  ///< built in the released state (band lifted, lever rotated back)
+  /// The layout actually built, SI units like src/mechanics.hpp: the solved layout in the applied
+  /// state; in the released state the moved lever pins, the lifted circle r_b + c and the new
+  /// tangent points and wrap.
+  Layout layout;
+  double lever_rotation = 0;  ///< rotation of the lever about the pivot from the applied state [rad]
+  AxialLayout axial;
+
+  /// Every instance's solid in assembly coordinates, in instance order.
+  std::vector<Placed> placed() const;
+  /// The solid of one instance in assembly coordinates.
+  TopoDS_Shape placed_shape(std::size_t instance) const;
+  /// Index of the first part of this kind, or parts.size() when absent (e.g. no lining).
+  std::size_t find(PartKind kind) const;
+};
+
+}  // namespace bandforge::geom
