@@ -60,7 +60,7 @@ struct Canvas::Impl {
   }
   template <class H>
   H check_handle(H h, const char* what) const {
-    if (h == nullptr || err.code != 0) check(HPDF_ERROR_DETECTED, what);
+    if (h == nullptr || err.code != 0) check(HPDF_INVALID_OBJECT, what);
     return h;
   }
   HPDF_Page need_page() const {

@@ -42,10 +42,17 @@ struct ContactCheck {
   double tolerance = 0;      ///< allowed common volume [mm³]
   bool intended = false;     ///< an intended contact (band on drum, pin in hole)
   bool ok = true;
+  /// Smallest distance between the two [mm] for parts that must stay clear; −1 when not
+  /// measured (intended contacts, whose distance is zero by design).
+  double distance = -1;
+  double min_distance = 0;   ///< required clearance for parts that must stay clear [mm]
 };
 
 struct BuildOptions {
   bool released = false;  ///< band lifted by the radial clearance, lever rotated back
+  /// Throw BuildError on an invalid solid or a failed contact check (the command's behaviour).
+  /// false returns the model with the failures recorded, for inspection.
+  bool reject_failures = true;
 };
 
 class BrakeModel {

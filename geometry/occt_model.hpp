@@ -64,7 +64,8 @@ struct BrakeModel::Impl {
   std::vector<PartInfo> infos;  ///< same order as parts; what BrakeModel::parts() returns
   std::vector<Instance> instances;
   std::vector<ContactCheck> contacts;
-  bool valid = true;  ///< every solid passed BRepCheck_Analyzer
+  bool valid = true;           ///< every solid passed BRepCheck_Analyzer
+  std::vector<bool> solid_ok;  ///< per part: one valid closed solid of positive volume
 
   bool released = false;  ///< built in the released state (band lifted, lever rotated back)
   /// The layout actually built, SI units like src/mechanics.hpp: the solved layout in the applied

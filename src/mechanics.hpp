@@ -57,8 +57,8 @@ struct DirectionResult {
   double pressure_mean = 0;     ///< (P1 − P2)/(f·b·r·φ) [Pa]
   double band_stress = 0;       ///< P1/(b·t), gross section [Pa]
   double pin_shear = 0;         ///< tight-end pin in double shear P1/(2·πd²/4) [Pa]
-  double lever_moment = 0;      ///< bending moment in the lever at the pivot section [N·m]
-  double lever_stress = 0;      ///< bending stress there, net of the pivot hole [Pa]
+  double lever_moment = 0;      ///< largest bending moment along the lever (pivot and pin sections) [N·m]
+  double lever_stress = 0;      ///< largest bending stress, net of the pin hole at that section [Pa]
   Vec2 drum_load;               ///< resultant band force on the drum (bearing load) [N]
   Vec2 pivot_reaction;          ///< force of the pivot pin on the lever [N]
 };

@@ -1,12 +1,236 @@
-// `bandforge build design.toml -o OUTDIR`: solids + STEP (+ PDF, + fab/ when those land).
+// `bandforge build design.toml -o OUTDIR [--released] [--json]`: solids, checks and the STEP
+// assembly (+ the PDF drawing and the fab/ flat patterns when those land).
+// Outputs are written into a staging directory inside OUTDIR and moved into place only when
+// every step has succeeded, so a failed build leaves no partial files behind.
+#include <cstdio>
+#include <filesystem>
+#include <iostream>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include <nlohmann/json.hpp>
+
 #include "src/cli/commands.hpp"
+#include "src/design_reader.hpp"
 #include "src/errors.hpp"
+#include "src/mechanics.hpp"
+
+#ifdef BANDFORGE_HAVE_GEOMETRY
+#include "geometry/brake_model.hpp"
+#endif
 
 namespace bandforge::cli {
+namespace {
+
+namespace fs = std::filesystem;
+
+struct BuildCommand {
+  std::string design;
+  std::string out_dir;
+  bool released = false;
+  bool json = false;
+};
+
+#ifdef BANDFORGE_HAVE_GEOMETRY
+
+// The file stem from [project] number: characters a file system may refuse become '_'.
+std::string file_stem(const std::string& number) {
+  std::string s;
+  for (char c : number) {
+    const bool plain = (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') ||
+                       c == '-' || c == '_' || c == '.';
+    s += plain ? c : '_';
+  }
+  if (s.empty() || s == "." || s == "..") s = "brake";
+  return s;
+}
+
+// A directory inside OUTDIR that holds the outputs until all of them exist; removed on failure.
+class Staging {
+ public:
+  Staging(const fs::path& out_dir, const std::string& stem) : out_(out_dir) {
+    std::error_code ec;
+    fs::create_directories(out_, ec);
+    if (ec || !fs::is_directory(out_)) {
+      throw IoError("cannot create the output directory " + out_.string() + ": " + ec.message());
+    }
+    dir_ = out_ / ("." + stem + ".partial");
+    fs::remove_all(dir_, ec);
+    if (!fs::create_directory(dir_, ec)) {
+      throw IoError("cannot write in " + out_.string() + ": " + ec.message());
+    }
+  }
+  ~Staging() {
+    std::error_code ec;
+    fs::remove_all(dir_, ec);
+  }
+  Staging(const Staging&) = delete;
+  Staging& operator=(const Staging&) = delete;
+
+  /// Where to write `name` now (a relative path such as "fab/band.dxf" is allowed).
+  std::string path(const std::string& name) {
+    const fs::path p = dir_ / name;
+    std::error_code ec;
+    fs::create_directories(p.parent_path(), ec);
+    names_.push_back(name);
+    return p.string();
+  }
+
+  /// Moves every staged file into OUTDIR; returns their final paths.
+  std::vector<std::string> commit() {
+    std::vector<std::string> done;
+    for (const std::string& name : names_) {
+      const fs::path to = out_ / name;
+      std::error_code ec;
+      fs::create_directories(to.parent_path(), ec);
+      fs::rename(dir_ / name, to, ec);
+      if (ec) throw IoError("cannot write " + to.string() + ": " + ec.message());
+      done.push_back(to.string());
+    }
+    return done;
+  }
+
+ private:
+  fs::path out_, dir_;
+  std::vector<std::string> names_;
+};
+
+std::string fixed(double v, int decimals) {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
+  return buf;
+}
+
+// Pads to `width` characters on screen (UTF-8: continuation bytes take no column).
+std::string pad(std::string s, std::size_t width) {
+  std::size_t shown = 0;
+  for (unsigned char c : s) shown += (c & 0xc0) != 0x80;
+  if (shown < width) s.append(width - shown, ' ');
+  else s += ' ';
+  return s;
+}
+
+void print_text(const Design& design, const geom::BrakeModel& model, bool released,
+                const std::vector<std::string>& files) {
+  std::cout << "bandforge build: " << design.project.number << "  " << design.project.title
+            << " (" << (released ? "released" : "applied") << " state)\n\n";
+  std::cout << "Parts                 instances  volume [cm³]  mass [kg]  material\n";
+  double total = 0;
+  for (const geom::PartInfo& p : model.parts()) {
+    const std::size_t n = p.instance_names.size();
+    total += p.mass * static_cast<double>(n);
+    std::cout << "  " << pad(p.name, 20) << pad(std::to_string(n), 11)
+              << pad(fixed(p.volume / 1000.0, 1), 14) << pad(fixed(p.mass, 3), 11) << p.material
+              << '\n';
+  }
+  std::cout << "  " << pad("total", 45) << fixed(total, 3) << "\n\nChecks\n";
+  std::cout << "  " << pad("every solid valid (BRepCheck_Analyzer)", 52)
+            << (model.all_valid() ? "pass" : "FAIL") << '\n';
+  for (const geom::ContactCheck& c : model.contacts()) {
+    std::string what = c.part_a + " / " + c.part_b + ": ";
+    if (c.intended) {
+      what += "contact, overlap " + fixed(c.common_volume, 4) + " mm³";
+    } else {
+      what += "clearance " + fixed(c.distance, 2) + " mm";
+    }
+    std::cout << "  " << pad(what, 52) << (c.ok ? "pass" : "FAIL") << '\n';
+  }
+  std::cout << '\n';
+  for (const std::string& f : files) std::cout << "wrote " << f << '\n';
+}
+
+nlohmann::json to_json(const Design& design, const geom::BrakeModel& model, bool released,
+                       const std::vector<std::string>& files) {
+  using nlohmann::json;
+  json parts = json::array();
+  for (const geom::PartInfo& p : model.parts()) {
+    json instances = json::array();
+    for (std::size_t i = 0; i < p.instance_names.size(); ++i) {
+      const geom::Vec3 o = p.instance_origins[i];
+      instances.push_back({{"name", p.instance_names[i]}, {"origin_mm", {o.x, o.y, o.z}}});
+    }
+    parts.push_back({{"name", p.name},
+                     {"material", p.material},
+                     {"density_kg_m3", p.density},
+                     {"volume_mm3", p.volume},
+                     {"mass_kg", p.mass},
+                     {"centroid_mm", {p.centroid.x, p.centroid.y, p.centroid.z}},
+                     {"colour_srgb", {p.colour.r, p.colour.g, p.colour.b}},
+                     {"instances", instances}});
+  }
+  json contacts = json::array();
+  bool all_ok = model.all_valid();
+  for (const geom::ContactCheck& c : model.contacts()) {
+    all_ok = all_ok && c.ok;
+    contacts.push_back({{"part_a", c.part_a},
+                        {"part_b", c.part_b},
+                        {"intended", c.intended},
+                        {"common_volume_mm3", c.common_volume},
+                        {"tolerance_mm3", c.tolerance},
+                        {"distance_mm", c.distance < 0 ? json(nullptr) : json(c.distance)},
+                        {"min_distance_mm", c.intended ? json(nullptr) : json(c.min_distance)},
+                        {"ok", c.ok}});
+  }
+  return {{"project", {{"number", design.project.number}, {"title", design.project.title}}},
+          {"state", released ? "released" : "applied"},
+          {"valid", model.all_valid()},
+          {"ok", all_ok},
+          {"parts", parts},
+          {"contacts", contacts},
+          {"files", files}};
+}
+
+void run_build(const BuildCommand& cmd) {
+  const Design design = read_design_file(cmd.design);
+  if (design.concept_arms.present) {
+    design_fail(design, "concept", "",
+                "a [concept] design has no pin coordinates; build needs end_a/end_b/pivot/handle");
+  }
+  const Solution solution = solve(design);
+  geom::BuildOptions options;
+  options.released = cmd.released;
+  const geom::BrakeModel model = geom::build_brake(design, solution, options);
+
+  const std::string stem = file_stem(design.project.number);
+  Staging staging(cmd.out_dir, stem);
+  geom::write_step(model, design, staging.path(stem + ".step"));
+  // PDF drawing (issue 4, drawing/): with BANDFORGE_HAVE_DRAWING, write
+  //   drawing::write_drawing(design, solution, &applied, &released_model, units,
+  //                          staging.path(stem + ".pdf"));
+  // where the drawing needs the applied model and the released one for the phantom lever.
+  // Flat patterns (issue 5, fab/): write each DXF to staging.path("fab/<part>.dxf") here.
+  const std::vector<std::string> files = staging.commit();
+
+  if (cmd.json) {
+    std::cout << to_json(design, model, cmd.released, files).dump(2) << '\n';
+  } else {
+    print_text(design, model, cmd.released, files);
+  }
+}
+
+#else
+
+void run_build(const BuildCommand&) {
+  throw Error(Exit::cannot_build,
+              "build: this bandforge was compiled without OpenCASCADE (BANDFORGE_GEOMETRY=OFF)");
+}
+
+#endif
+
+}  // namespace
 
 void setup_build(CLI::App& app) {
-  auto* sub = app.add_subcommand("build", "Build the solids and write the STEP assembly, drawing and flat patterns");
-  sub->callback([] { throw Error(Exit::usage, "build: not available yet"); });
+  auto cmd = std::make_shared<BuildCommand>();
+  auto* sub = app.add_subcommand(
+      "build", "Build the solids, check them and write OUTDIR/<number>.step (drawing and flat "
+               "patterns when available)");
+  sub->add_option("design", cmd->design, "design file (TOML)")->required();
+  sub->add_option("-o,--out", cmd->out_dir, "output directory (created if missing)")->required();
+  sub->add_flag("--released", cmd->released,
+                "build the released state: band lifted by the clearance, lever turned back");
+  sub->add_flag("--json", cmd->json, "print one JSON object (parts, checks, files) on stdout");
+  sub->callback([cmd] { run_build(*cmd); });
 }
 
 }  // namespace bandforge::cli

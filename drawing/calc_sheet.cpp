@@ -1,0 +1,565 @@
+#include "drawing/calc_sheet.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <numbers>
+
+#include "drawing/format.hpp"
+#include "drawing/plot.hpp"
+#include "drawing/sheet.hpp"
+#include "drawing/table.hpp"
+#include "drawing/text_fit.hpp"
+
+namespace bandforge::drawing {
+namespace {
+
+constexpr double kH = Lettering::body;
+constexpr double kPitch = kH * 1.65;
+
+Block heading(std::string text) {
+  Block b;
+  b.height = [](const Canvas&, double) { return Lettering::heading + 1.5; };
+  b.draw = [text](Canvas& c, Pt p, double w) {
+    c.text({p.x, p.y - Lettering::heading}, text, Lettering::heading);
+    c.pen(Pen::narrow);
+    c.line({p.x, p.y - Lettering::heading - 1.2}, {p.x + w, p.y - Lettering::heading - 1.2});
+  };
+  b.keep_with_next = true;
+  b.space_after = 2.0;
+  return b;
+}
+
+/// Numbered or plain lines of prose, each wrapped to the column.
+Block paragraphs(std::vector<std::string> items, bool numbered) {
+  auto lines_of = [items, numbered](const Canvas& c, double w) {
+    std::vector<std::pair<std::string, bool>> out;  // text, first line of an item
+    for (size_t i = 0; i < items.size(); ++i) {
+      const double indent = numbered ? 5.0 : 0.0;
+      auto ls = wrap_lines(c, items[i], kH, w - indent);
+      for (size_t k = 0; k < ls.size(); ++k) out.push_back({ls[k], k == 0});
+    }
+    return out;
+  };
+  Block b;
+  b.height = [lines_of](const Canvas& c, double w) {
+    return static_cast<double>(lines_of(c, w).size()) * kPitch;
+  };
+  b.draw = [lines_of, numbered](Canvas& c, Pt p, double w) {
+    double y = p.y - kH;
+    int n = 0;
+    for (const auto& [text, first] : lines_of(c, w)) {
+      if (numbered && first) c.text({p.x, y}, std::to_string(++n) + ".", kH);
+      c.text({p.x + (numbered ? 5.0 : 0.0), y}, text, kH);
+      y -= kPitch;
+    }
+  };
+  return b;
+}
+
+Block table_block(Table t) {
+  Block b;
+  b.height = [t](const Canvas& c, double w) {
+    Table f = t;
+    fit_width(f, w);
+    return table_height(c, f);
+  };
+  b.draw = [t](Canvas& c, Pt p, double w) {
+    Table f = t;
+    fit_width(f, w);
+    draw_table(c, f, p);
+  };
+  return b;
+}
+
+// Plain value in the display unit, trailing zeros dropped ("400", "0.125").
+std::string plain(double si, Quantity q, UnitSystem u, int decimals) {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*f", decimals, to_display(si, q, u));
+  std::string s = buf;
+  if (s.find('.') != std::string::npos) {
+    while (s.back() == '0') s.pop_back();
+    if (s.back() == '.') s.pop_back();
+  }
+  if (s == "-0") s = "0";
+  return s;
+}
+
+std::string len(double m, UnitSystem u) {
+  return plain(m, Quantity::length, u, u == UnitSystem::si ? 2 : 4) + " " +
+         display_unit(Quantity::length, u);
+}
+
+std::string point(Vec2 p, UnitSystem u) {
+  const int dec = u == UnitSystem::si ? 2 : 4;
+  return "(" + plain(p.x, Quantity::length, u, dec) + ", " + plain(p.y, Quantity::length, u, dec) +
+         ") " + display_unit(Quantity::length, u);
+}
+
+std::string fnum(double v) { return sig_figs(v, 3); }
+
+const char* turn_name(Turn t) { return t == Turn::cw ? "CW" : "CCW"; }
+
+std::string kind_name(BrakeKind k) { return to_string(k); }
+
+// ---- content --------------------------------------------------------------------------------
+
+std::vector<std::string> method_items(const Design& d, const Solution& s) {
+  const bool thick = d.band.model == TensionModel::thick;
+  const bool torque_given = d.load.given == Load::Given::torque;
+  std::vector<std::string> m;
+  m.push_back(std::string("Band on drum: a flexible band slipping over the whole wrap; the tensions "
+                          "follow the capstan (Euler–Eytelwein) relation ") +
+              (thick ? "P1/P2 = e^(f·φ·r/r_b) and T = (P1 − P2)·r_b (thick band, line of action "
+                       "at r_b = r + t_lining + t/2, REFERENCE §1.11)."
+                     : "P1/P2 = e^(f·φ) and T = (P1 − P2)·r (thin band, REFERENCE §1.1–1.2)."));
+  if (s.layout.from_pins) {
+    m.push_back("Layout from the pins: each free run leaves the band circle r_b tangentially, "
+                "β = ψ ± acos(r_b/d) from a pin at distance d and polar angle ψ; the wrap φ is the "
+                "angle between the two tangent points (REFERENCE §1.8).");
+    m.push_back("Lever statics: moments about the pivot O. Each run pulls its pin along the run "
+                "line, so its arm is the signed perpendicular distance m = (E − O) × u, not the "
+                "pin offset. The lever turns in the sense σ = −sign(m_A + m_B) to tighten the band; "
+                "m' = σ·m > 0 means the tension helps apply.");
+  } else {
+    m.push_back("Concept layout: wrap and perpendicular arms taken as given ([concept] " +
+                kind_name(s.layout.kind) + " brake, textbook figures, r_b = r).");
+  }
+  m.push_back(torque_given
+                  ? "Torque given: P2 = T/(r·(e^(f·φ) − 1)), P1 = e^(f·φ)·P2; operator force "
+                    "F = P2·(−(e^(f·φ)·m'_t + m'_s))/L at the handle arm L."
+                  : "Lever force given: P2 = F·L/(−(e^(f·φ)·m'_t + m'_s)), P1 = e^(f·φ)·P2, "
+                    "T = (P1 − P2)·r.");
+  m.push_back("Self-locking when e^(f·φ)·m'_t + m'_s ≥ 0: the band then applies itself "
+              "(REFERENCE §1.7); the critical friction is f = ln(−m'_s/m'_t)/φ.");
+  m.push_back("Lining pressure p(θ) = P(θ)/(b·r), P(θ) = P2·e^(f·θ) from the slack end, largest at "
+              "the tight end: p_max = P1/(b·r) (REFERENCE §1.3). Band stress σ = P1/(b·t), gross "
+              "section (§1.4); pin in double shear τ = P1/(2·π·d²/4); lever bending σ = M/Z at the "
+              "net section, Z = t·(w³ − d³)/(6·w).");
+  if (s.thermal.present) {
+    m.push_back("Thermal (REFERENCE §2): energy per stop E = m·g·s + ½·m·v² + ½·I·ω²; the drum rim "
+                "absorbs it, ΔT = E/(m_rim·c); power per lining area q = E/(t_stop·b·r·φ), peak "
+                "2 × mean at the start of a uniform stop.");
+  }
+  m.push_back("Every result is given for both drum rotations at f_min, f_nominal and f_max of the "
+              "lining; checks take the worst of these cases.");
+  return m;
+}
+
+Table inputs_table(const Design& d, const Solution& s, UnitSystem u) {
+  Table t;
+  t.widths = {58, 18, 50, 60};
+  t.rows.push_back({"Input", "Symbol", "Value", "Source / note"});
+  auto row = [&](std::string a, std::string b, std::string c, std::string e = "") {
+    t.rows.push_back({std::move(a), std::move(b), std::move(c), std::move(e)});
+  };
+  row("Drum friction diameter", "D = 2r", len(d.drum.diameter, u));
+  row("Drum face width", "w", len(d.drum.width, u));
+  if (d.drum.bore > 0) row("Drum bore", "", len(d.drum.bore, u));
+  row("Drum rotation to be braked", "", std::string(turn_name(d.drum.rotation)) + " (seen from the front)");
+  if (!d.drum.material.empty()) {
+    row("Drum material", "", d.drum.material,
+        "ρ = " + sig_figs(d.drum.density, 4) + " kg/m³, c = " +
+            sig_figs(d.drum.specific_heat, 3) + " J/(kg·K); " + d.drum.material_source);
+  }
+  row("Lining", "", d.lining.material.empty() ? "explicit values" : d.lining.material);
+  row("Friction coefficient", "f", fnum(d.lining.friction) + " (" + fnum(d.lining.friction_min) +
+                                        " … " + fnum(d.lining.friction_max) + ")",
+      d.lining.friction_source);
+  if (d.lining.pressure_limit > 0) {
+    row("Lining pressure limit", "p_allow", qty(d.lining.pressure_limit, Quantity::stress, u),
+        d.lining.pressure_source);
+  }
+  if (d.lining.temperature_limit > 0) {
+    row("Lining temperature limit", "", qty(d.lining.temperature_limit, Quantity::temperature, u, 3),
+        d.lining.temperature_source);
+  }
+  if (d.lining.power_limit > 0) {
+    row("Lining power limit", "q_allow", qty(d.lining.power_limit, Quantity::power_density, u, 3),
+        d.lining.power_source);
+  }
+  row("Lining thickness", "t_lining", len(d.lining.thickness, u));
+  row("Band width", "b", len(d.band.width, u));
+  row("Band thickness", "t", len(d.band.thickness, u));
+  row("Band allowable stress", "σ_allow", qty(d.band.allowable_stress, Quantity::stress, u),
+      "gross section");
+  row("Band sense, A → B", "s", std::string(turn_name(d.band.sense)));
+  row("Tension model", "", d.band.model == TensionModel::thick ? "thick band" : "thin band (r_b = r)");
+  if (s.layout.from_pins) {
+    row("End A pin", "E_A", point(d.band.end_a.at, u), std::string("on the ") + to_string(d.band.end_a.mount));
+    row("End B pin", "E_B", point(d.band.end_b.at, u), std::string("on the ") + to_string(d.band.end_b.mount));
+    row("Lever pivot", "O", point(d.lever.pivot, u));
+    row("Handle (force point)", "H", point(d.lever.handle, u), "force ⟂ O→H, applying sense");
+  } else {
+    const Concept& k = d.concept_arms;
+    row("Brake kind", "", kind_name(k.kind), "[concept]");
+    row("Wrap angle", "φ", degrees(k.wrap));
+    row("Handle arm", "L", len(k.handle_arm, u));
+    row("Arm of end A", "a_A", len(k.arm_a, u));
+    row("Arm of end B", "a_B", len(k.arm_b, u));
+  }
+  if (d.band.pin_diameter > 0) row("Pin diameter", "d", len(d.band.pin_diameter, u));
+  if (d.band.clearance > 0) row("Release clearance (radial)", "c", len(d.band.clearance, u));
+  if (d.lever.width > 0) {
+    row("Lever plate", "w × t_l", len(d.lever.width, u) + " × " + len(d.lever.thickness, u));
+  }
+  if (d.lever.allowable_stress > 0) {
+    row("Lever allowable stress", "", qty(d.lever.allowable_stress, Quantity::stress, u));
+  }
+  if (d.load.given == Load::Given::torque) {
+    row("Required torque", "T_load", qty(d.load.torque, Quantity::torque, u));
+  } else {
+    row("Operator force", "F", qty(d.load.lever_force, Quantity::force, u));
+  }
+  row("Service factor", "K", sig_figs(d.load.service_factor, 3));
+  if (d.duty.present) {
+    const Duty& du = d.duty;
+    if (du.hoist_mass > 0) {
+      row("Hoist load", "m", qty(du.hoist_mass, Quantity::mass, u));
+      row("Load speed", "v", qty(du.hoist_speed, Quantity::linear_speed, u, 3));
+      row("Stopping distance", "s", len(du.stop_distance, u));
+      row("Rope radius on the brake shaft", "r_rope", len(du.rope_radius, u));
+    }
+    if (du.speed > 0) row("Drum speed", "ω", qty(du.speed, Quantity::angular_speed, u, 4));
+    if (du.inertia > 0) row("Rotating inertia", "I", qty(du.inertia, Quantity::inertia, u));
+    if (du.stops_per_hour > 0) row("Stops per hour", "", sig_figs(du.stops_per_hour, 3));
+    row("Ambient temperature", "T∞", qty(du.ambient, Quantity::temperature, u, 3));
+  }
+  return t;
+}
+
+Table layout_table(const Design& d, const Solution& s, UnitSystem u) {
+  const Layout& L = s.layout;
+  Table t;
+  t.widths = {50, 66, 40};
+  t.rows.push_back({"Quantity", "Formula", "Value"});
+  auto row = [&](std::string a, std::string b, std::string c) {
+    t.rows.push_back({std::move(a), std::move(b), std::move(c)});
+  };
+  row("Friction radius", "r = D/2", len(L.r, u));
+  if (L.from_pins) {
+    row("Band line radius", "r_b = r + t_lining + t/2", len(L.r_band, u));
+    for (int i = 0; i < 2; ++i) {
+      const EndLayout& e = i == 0 ? L.a : L.b;
+      const std::string n = i == 0 ? "A" : "B";
+      const double dist = std::hypot(e.pin.x, e.pin.y);
+      row("Pin " + n + " distance", "d_" + n + " = |E_" + n + "|", len(dist, u));
+      row("Tangent angle " + n, std::string("β_") + n + " = ψ_" + n + (i == 0 ? " + " : " − ") +
+                                    "s·acos(r_b/d_" + n + ")",
+          degrees(e.tangent_angle));
+      row("Tangent point " + n, "T_" + n + " = r_b·(cos β, sin β)", point(e.tangent_point, u));
+      row("Free run " + n, "ℓ_" + n + " = √(d² − r_b²)", len(e.free_length, u));
+    }
+    row("Wrap angle", "φ = s·(β_B − β_A) mod 2π", degrees(L.wrap) + " = " + sig_figs(L.wrap, 4) + " rad");
+    row("Band centreline length", "ℓ_A + ℓ_B + r_b·φ", len(L.band_length, u));
+    for (int i = 0; i < 2; ++i) {
+      const EndLayout& e = i == 0 ? L.a : L.b;
+      const std::string n = i == 0 ? "A" : "B";
+      if (e.mount == Mount::frame) {
+        row("Arm of run " + n, "end on the frame", "—");
+      } else {
+        row("Arm of run " + n, "m_" + n + " = (E_" + n + " − O) × u_" + n,
+            len(e.arm, u) + " (m' = " + plain(e.arm_applied, Quantity::length, u, 2) + ")");
+      }
+    }
+    row("Apply sense", "σ = −sign(m_A + m_B)", L.apply_sense > 0 ? "+1 (CCW)" : "−1 (CW)");
+    row("Handle arm", "L = |H − O|", len(L.handle_arm, u));
+  } else {
+    row("Wrap angle", "given", degrees(L.wrap));
+    row("Arm of end A (m')", "given", len(L.a.arm_applied, u));
+    row("Arm of end B (m')", "given", len(L.b.arm_applied, u));
+    row("Handle arm", "given", len(L.handle_arm, u));
+  }
+  row("Brake kind", "from the signs of m'", kind_name(L.kind));
+  if (L.from_pins && d.band.clearance > 0) {
+    row("Lever rotation to release", "δψ = φ·c/|m_A + m_B|", degrees(L.release_rotation, 2));
+    row("Handle travel", "L·δψ", len(L.handle_travel, u));
+  }
+  return t;
+}
+
+Table forces_table(const Design& d, const Solution& s, UnitSystem u) {
+  const bool thick = d.band.model == TensionModel::thick;
+  const bool torque_given = d.load.given == Load::Given::torque;
+  const std::string r = thick ? "r_b" : "r";
+  const std::string e = thick ? "e^(fφr/r_b)" : "e^(fφ)";
+  Table t;
+  t.widths = {30, 40, 16, 16, 16, 16, 16, 16};
+  t.align = {Align::left, Align::left, Align::right, Align::right, Align::right,
+             Align::right, Align::right, Align::right};
+  std::vector<std::string> head = {"Result", "Formula"};
+  // Design rotation first.
+  const int order[2] = {s.primary_a_tight ? 0 : 1, s.primary_a_tight ? 1 : 0};
+  for (int k = 0; k < 2; ++k) {
+    const bool a_tight = order[k] == 0;
+    for (int f = 0; f < 3; ++f) {
+      const auto& res = s.results[order[k]][f];
+      head.push_back(std::string(k == 0 ? "design " : "reverse ") + turn_name(rotation_for(s, a_tight)) +
+                     (a_tight ? " A" : " B") + " tight f = " + fnum(res.friction));
+    }
+  }
+  t.rows.push_back(head);
+  auto row = [&](std::string name, std::string formula, auto value_of) {
+    std::vector<std::string> cells = {std::move(name), std::move(formula)};
+    for (int k = 0; k < 2; ++k)
+      for (int f = 0; f < 3; ++f) cells.push_back(value_of(s.results[order[k]][f]));
+    t.rows.push_back(cells);
+  };
+  auto q = [&](Quantity qq, double DirectionResult::*field) {
+    return [=](const DirectionResult& res) { return qty_value(res.*field, qq, u); };
+  };
+  row("Capstan ratio", "P1/P2 = " + e, [](const DirectionResult& res) { return sig_figs(res.capstan_ratio, 4); });
+  row("Slack tension P2 [" + display_unit(Quantity::force, u) + "]",
+      torque_given ? "T/(" + r + "·(" + e + " − 1))" : "F·L/−(" + e + "·m't + m's)",
+      q(Quantity::force, &DirectionResult::tension_slack));
+  row("Tight tension P1 [" + display_unit(Quantity::force, u) + "]", e + "·P2",
+      q(Quantity::force, &DirectionResult::tension_tight));
+  row("Torque T [" + display_unit(Quantity::torque, u) + "]",
+      torque_given ? "T_load·K (given)" : "(P1 − P2)·" + r, q(Quantity::torque, &DirectionResult::torque));
+  row("Lever force F [" + display_unit(Quantity::force, u) + "]",
+      torque_given ? "−P2·(" + e + "·m't + m's)/L" : "given",
+      [&](const DirectionResult& res) {
+        return res.self_locking ? std::string("self-locks") : qty_value(res.lever_force, Quantity::force, u);
+      });
+  row("Max pressure p_max [" + display_unit(Quantity::stress, u) + "]", "P1/(b·r)",
+      q(Quantity::stress, &DirectionResult::pressure_max));
+  row("Mean pressure [" + display_unit(Quantity::stress, u) + "]", "T/(f·b·r²·φ)",
+      q(Quantity::stress, &DirectionResult::pressure_mean));
+  row("Band stress σ [" + display_unit(Quantity::stress, u) + "]", "P1/(b·t)",
+      q(Quantity::stress, &DirectionResult::band_stress));
+  if (d.band.pin_diameter > 0) {
+    row("Pin shear τ [" + display_unit(Quantity::stress, u) + "]", "P1/(2·πd²/4)",
+        q(Quantity::stress, &DirectionResult::pin_shear));
+  }
+  row("Lever moment M [" + display_unit(Quantity::torque, u) + "]", "largest section moment",
+      q(Quantity::torque, &DirectionResult::lever_moment));
+  if (d.lever.width > 0) {
+    row("Lever stress [" + display_unit(Quantity::stress, u) + "]", "M/Z_net",
+        q(Quantity::stress, &DirectionResult::lever_stress));
+  }
+  if (s.layout.from_pins) {
+    row("Drum bearing load [" + display_unit(Quantity::force, u) + "]", "|P_A·u_A + P_B·u_B|",
+        [&](const DirectionResult& res) {
+          return qty_value(std::hypot(res.drum_load.x, res.drum_load.y), Quantity::force, u);
+        });
+    row("Pivot reaction [" + display_unit(Quantity::force, u) + "]", "|−(F·d_F + Σ P·u)|",
+        [&](const DirectionResult& res) {
+          return qty_value(std::hypot(res.pivot_reaction.x, res.pivot_reaction.y), Quantity::force, u);
+        });
+  }
+  row("Self-locking", "e·m't + m's ≥ 0",
+      [](const DirectionResult& res) { return std::string(res.self_locking ? "YES" : "no"); });
+  return t;
+}
+
+Table capacity_thermal_table(const Design& d, const Solution& s, UnitSystem u) {
+  const bool thick = d.band.model == TensionModel::thick;
+  const std::string r = thick ? "r_b" : "r";
+  const std::string e = thick ? "e^(−fφr/r_b)" : "e^(−fφ)";
+  Table t;
+  t.widths = {60, 70, 40};
+  t.rows.push_back({"Quantity", "Formula", "Value"});
+  auto row = [&](std::string a, std::string b, std::string c) {
+    t.rows.push_back({std::move(a), std::move(b), std::move(c)});
+  };
+  const Capacity& c = s.capacity;
+  if (d.load.given == Load::Given::torque) {
+    row("Design torque", "T_load·K", qty(s.required_torque, Quantity::torque, u));
+  }
+  row("Torque at band allowable stress (f = " + fnum(c.friction) + ")",
+      "σ_allow·b·t·" + r + "·(1 − " + e + ")", qty(c.torque_band, Quantity::torque, u));
+  row("Torque at lining pressure limit", "p_allow·b·r·" + r + "·(1 − " + e + ")",
+      qty(c.torque_pressure, Quantity::torque, u));
+  row("Capacity", "the smaller", qty(c.torque, Quantity::torque, u));
+  if (s.self_lock_friction) {
+    row("Self-locking friction", "f = ln(−m's/m't)/φ", fnum(*s.self_lock_friction));
+  } else {
+    row("Self-locking friction", "—", "none: cannot self-lock");
+  }
+  const Thermal& th = s.thermal;
+  if (th.present) {
+    row("Energy per stop", d.duty.hoist_mass > 0 ? "m·g·s + ½·m·v² + ½·I·ω²" : "½·I·ω²",
+        qty(th.energy, Quantity::energy, u));
+    if (th.stop_time > 0) row("Stop time", "2·s/v or 2·θ/ω", sig_figs(th.stop_time, 3) + " s");
+    if (th.hoist_torque > 0) row("Mean torque to stop the load", "E/θ_stop", qty(th.hoist_torque, Quantity::torque, u));
+    row("Drum rim mass", "ρ·π/4·(D² − D_i²)·w", qty(th.rim_mass, Quantity::mass, u));
+    row("Temperature rise per stop", "ΔT = E/(m_rim·c)", qty(th.temperature_rise, Quantity::temperature_difference, u, 3));
+    row("Drum temperature", "T∞ + ΔT", qty(th.peak_temperature, Quantity::temperature, u, 3));
+    row("Lining area in contact", "b·r·φ", sig_figs(to_display(th.lining_area, Quantity::length, u) *
+                                                        to_display(1.0, Quantity::length, u), 4) +
+                                               " " + display_unit(Quantity::length, u) + "²");
+    row("Power per lining area, mean", "E/(t_stop·b·r·φ)", qty(th.power_density_mean, Quantity::power_density, u, 3));
+    row("Power per lining area, peak", "2 × mean", qty(th.power_density_peak, Quantity::power_density, u, 3));
+    if (th.mean_power > 0) row("Mean braking power", "E·stops/3600 s", qty(th.mean_power, Quantity::power, u, 3));
+  }
+  return t;
+}
+
+Table checks_table(const Solution& s, UnitSystem u) {
+  Table t;
+  t.widths = {46, 22, 22, 70, 14};
+  t.align = {Align::left, Align::right, Align::right, Align::left, Align::centre};
+  t.rows.push_back({"Check (governing case)", "Value", "Limit", "Source of the limit", "Result"});
+  for (const Check& c : s.checks) {
+    const Quantity q = quantity_of_unit(c.unit);
+    const std::string unit = display_unit(q, u);
+    const std::string rel = c.upper ? "≤ " : "≥ ";
+    t.rows.push_back({c.title + (c.note.empty() ? "" : " (" + c.note + ")"),
+                      qty_value(c.value, q, u, 4) + (unit.empty() ? "" : " " + unit),
+                      rel + qty_value(c.limit, q, u, 4) + (unit.empty() ? "" : " " + unit), c.source,
+                      c.ok ? "pass" : "FAIL"});
+  }
+  return t;
+}
+
+Plot tension_plot(const Design& d, const Solution& s, UnitSystem u) {
+  const Layout& L = s.layout;
+  Plot p;
+  p.title = "Band tension P(θ) and lining pressure p(θ) along the wrap, design rotation";
+  p.x_label = "θ from the slack end [°]";
+  p.y_label = "P [" + display_unit(Quantity::force, u) + "]";
+  p.y2_label = "p [" + display_unit(Quantity::stress, u) + "]";
+  const auto& dir = s.results[s.primary_a_tight ? 0 : 1];
+  // P(θ) = P2·ratio^(θ/φ) covers the thin and the thick model alike; p = P·p_max/P1.
+  double y_max = 0;
+  const Pen pens[3] = {Pen::plot_dashed, Pen::plot, Pen::fine};
+  const double deg = 180.0 / std::numbers::pi;
+  for (int f = 0; f < 3; ++f) {
+    const DirectionResult& r = dir[f];
+    Series se;
+    se.pen = pens[f];
+    se.label = "f = " + fnum(r.friction);
+    for (int i = 0; i <= 60; ++i) {
+      const double th = L.wrap * i / 60.0;
+      const double P = r.tension_slack * std::pow(r.capstan_ratio, th / L.wrap);
+      se.points.push_back({th * deg, to_display(P, Quantity::force, u)});
+      y_max = std::max(y_max, se.points.back().y);
+    }
+    p.series.push_back(se);
+  }
+  const DirectionResult& nom = dir[1];
+  if (nom.tension_tight > 0 && nom.pressure_max > 0) {
+    // Right axis: p = P/(b·r) in display units.
+    const double k = to_display(nom.pressure_max, Quantity::stress, u) /
+                     to_display(nom.tension_tight, Quantity::force, u);
+    p.y2_factor = k;
+    if (d.lining.pressure_limit > 0) {
+      const double limit_P = to_display(d.lining.pressure_limit, Quantity::stress, u) / k;
+      p.lines.push_back({limit_P, true, "pressure limit " + qty(d.lining.pressure_limit, Quantity::stress, u)});
+      y_max = std::max(y_max, limit_P * 1.05);
+    }
+  }
+  p.x_min = 0;
+  p.x_max = L.wrap * deg;
+  p.y_min = 0;
+  p.y_max = y_max > 0 ? y_max : 1;
+  return p;
+}
+
+Plot lever_plot(const Design& d, const Solution& s, UnitSystem u) {
+  const Layout& L = s.layout;
+  const bool torque_given = d.load.given == Load::Given::torque;
+  Plot p;
+  p.title = torque_given ? "Lever force against friction coefficient"
+                         : "Braking torque against friction coefficient";
+  p.x_label = "friction coefficient f";
+  p.y_label = torque_given ? "F [" + display_unit(Quantity::force, u) + "]"
+                           : "T [" + display_unit(Quantity::torque, u) + "]";
+  const double f0 = d.lining.friction_min, f1 = d.lining.friction_max;
+  const double span = std::max(f1 - f0, 0.05);
+  const double lo = std::max(0.01, f0 - 0.25 * span), hi = std::min(0.99, f1 + 0.25 * span);
+  double y_max = 0;
+  for (int k = 0; k < 2; ++k) {
+    const bool a_tight = k == 0 ? s.primary_a_tight : !s.primary_a_tight;
+    Series se;
+    se.pen = k == 0 ? Pen::plot : Pen::plot_dashed;
+    se.label = std::string(k == 0 ? "design " : "reverse ") + turn_name(rotation_for(s, a_tight));
+    for (int i = 0; i <= 80; ++i) {
+      const double f = lo + (hi - lo) * i / 80.0;
+      const DirectionResult r = solve_direction(d, L, a_tight, f);
+      const double v = torque_given ? to_display(r.lever_force, Quantity::force, u)
+                                    : to_display(r.torque, Quantity::torque, u);
+      se.points.push_back({f, v});
+      y_max = std::max(y_max, v);
+    }
+    p.series.push_back(se);
+  }
+  p.lines.push_back({f0, false, "f_min", {0.3, 0.3, 0.3}});
+  p.lines.push_back({f1, false, "f_max", {0.3, 0.3, 0.3}});
+  if (s.self_lock_friction) {
+    p.shade = std::make_pair(*s.self_lock_friction, 1.0);
+    p.shade_label = "self-locking f ≥ " + fnum(*s.self_lock_friction);
+    p.lines.push_back({*s.self_lock_friction, false, "", {0.8, 0, 0}});
+  }
+  if (torque_given && d.load.given == Load::Given::torque) {
+    // Reference: what a hand gives regularly (common practice, REFERENCE §3).
+    const double hand = 250.0;
+    if (to_display(hand, Quantity::force, u) < y_max * 1.6) {
+      p.lines.push_back({to_display(hand, Quantity::force, u), true, "250 N hand force (common practice)",
+                         {0.3, 0.3, 0.3}});
+    }
+  }
+  p.x_min = lo;
+  p.x_max = hi;
+  p.y_min = 0;
+  p.y_max = y_max > 0 ? y_max * 1.05 : 1;
+  return p;
+}
+
+Block plots_block(Plot left, Plot right) {
+  Block b;
+  b.height = [](const Canvas&, double) { return 62.0; };
+  b.draw = [left, right](Canvas& c, Pt p, double w) {
+    const double half = (w - 6) / 2;
+    draw_plot(c, left, {p.x, p.y - 62, p.x + half, p.y});
+    draw_plot(c, right, {p.x + half + 6, p.y - 62, p.x + w, p.y});
+  };
+  return b;
+}
+
+}  // namespace
+
+Turn rotation_for(const Solution& s, bool a_tight) {
+  // A is tight when the drum turns the way the band runs from A (REFERENCE §1.8 step 6).
+  const bool ccw = (s.layout.sense > 0) == a_tight;
+  return ccw ? Turn::ccw : Turn::cw;
+}
+
+Quantity quantity_of_unit(const std::string& u) {
+  if (u == "Pa") return Quantity::stress;
+  if (u == "N") return Quantity::force;
+  if (u == "N·m" || u == "N*m") return Quantity::torque;
+  if (u == "m") return Quantity::length;
+  if (u == "°C") return Quantity::temperature;
+  if (u == "K") return Quantity::temperature_difference;
+  if (u == "W/m²") return Quantity::power_density;
+  if (u == "W") return Quantity::power;
+  if (u == "J") return Quantity::energy;
+  if (u == "kg") return Quantity::mass;
+  if (u == "rad") return Quantity::angle;
+  return Quantity::dimensionless;
+}
+
+std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSystem u) {
+  std::vector<Block> b;
+  b.push_back(heading("1  Method"));
+  b.push_back(paragraphs(method_items(d, s), true));
+  b.push_back(heading("2  Inputs (design file " + d.file + ")"));
+  b.push_back(table_block(inputs_table(d, s, u)));
+  b.push_back(heading(s.layout.from_pins ? "3  Layout from the pins" : "3  Concept layout"));
+  b.push_back(table_block(layout_table(d, s, u)));
+  b.push_back(heading("4  Forces and stresses, both rotations, f_min / f_nominal / f_max"));
+  b.push_back(table_block(forces_table(d, s, u)));
+  b.push_back(heading(s.thermal.present ? "5  Capacity and thermal duty" : "5  Capacity"));
+  b.push_back(table_block(capacity_thermal_table(d, s, u)));
+  b.push_back(heading("6  Checks"));
+  b.push_back(table_block(checks_table(s, u)));
+  if (!s.warnings.empty()) {
+    b.push_back(heading("7  Warnings"));
+    b.push_back(paragraphs(s.warnings, true));
+  }
+  b.push_back(heading(s.warnings.empty() ? "7  Plots" : "8  Plots"));
+  b.push_back(plots_block(tension_plot(d, s, u), lever_plot(d, s, u)));
+  return b;
+}
+
+}  // namespace bandforge::drawing

@@ -1,0 +1,23 @@
+// The calculation sheet: method, inputs, layout, forces by direction and friction, capacity,
+// thermal duty, checks with their sources, warnings and the plots — as blocks to flow over the
+// sheet's columns.
+#pragma once
+
+#include <vector>
+
+#include "drawing/flow.hpp"
+#include "src/design.hpp"
+#include "src/mechanics.hpp"
+#include "src/units.hpp"
+
+namespace bandforge::drawing {
+
+std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSystem u);
+
+/// The drum rotation (seen from the front) that makes end A (or B) the tight end.
+Turn rotation_for(const Solution& s, bool a_tight);
+
+/// The display quantity of a check's SI unit symbol ("Pa" → stress, "N·m" → torque, ...).
+Quantity quantity_of_unit(const std::string& si_unit);
+
+}  // namespace bandforge::drawing

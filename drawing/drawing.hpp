@@ -1,0 +1,54 @@
+// The PDF drawing of a solved brake: page 1 the assembly drawing (views from exact hidden-line
+// removal of the solids, ISO 129 dimensions, results table, parts list), then the calculation
+// sheet. Standard types only: libharu and OCCT stay inside drawing/ and geometry/.
+#pragma once
+
+#include <string>
+
+#include "geometry/brake_model.hpp"
+#include "src/design.hpp"
+#include "src/mechanics.hpp"
+#include "src/units.hpp"
+
+namespace bandforge::drawing {
+
+/// Where things land on the sheets, so that callers and tests can find them.
+struct SheetPlan {
+  std::string sheet;        ///< "A2", "A3", "A4"
+  double width_mm = 0;      ///< sheet as drawn (A2/A3 landscape, A4 portrait)
+  double height_mm = 0;
+  bool assembly = false;    ///< page 1 is the assembly drawing (false: a concept design)
+  int scale_num = 1;        ///< assembly scale num:den (ISO 5455)
+  int scale_den = 1;
+  /// Drum centre in the front view, mm from the sheet's lower-left corner (PDF convention).
+  double drum_x_mm = 0;
+  double drum_y_mm = 0;
+  /// Title block box, mm from the lower-left corner: x0, y0, x1, y1.
+  double title_block[4] = {0, 0, 0, 0};
+  /// Box around all view geometry (front, side and their centre lines) on page 1.
+  double views_box[4] = {0, 0, 0, 0};
+  int pages = 0;            ///< total pages in the PDF
+  double hlr_ms = 0;        ///< hidden-line removal time of the two main views [ms]
+  std::vector<std::string> notes;  ///< dimensions moved or dropped, and why
+};
+
+/// The sheet and scale for this design: [drawing] sheet/scale when given (checked to fit),
+/// otherwise A3 at the largest ISO 5455 scale at which the views fit. Throws BuildError naming
+/// the sheet and the scales tried when nothing fits. `model` may be null (concept design).
+SheetPlan plan_drawing(const Design& design, const Solution& solution,
+                       const geom::BrakeModel* model);
+
+/// Writes the PDF to `path` (through a temporary file renamed when complete). `model` is the
+/// applied-state assembly (null for a concept design: calculation sheet only); `released` the
+/// released state, drawn as the lever's phantom position (may be null).
+/// Throws BuildError (layout cannot fit, libharu failure) or IoError (cannot write).
+SheetPlan write_drawing(const Design& design, const Solution& solution,
+                        const geom::BrakeModel* model, const geom::BrakeModel* released,
+                        UnitSystem units, const std::string& path);
+
+/// The same document as bytes (what write_drawing writes).
+std::string render_drawing(const Design& design, const Solution& solution,
+                           const geom::BrakeModel* model, const geom::BrakeModel* released,
+                           UnitSystem units, SheetPlan* plan = nullptr);
+
+}  // namespace bandforge::drawing

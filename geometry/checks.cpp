@@ -1,0 +1,139 @@
+// Checks run on every build: solid validity, mass properties, interference and clearance.
+#include <algorithm>
+#include <cstdio>
+#include <string>
+#include <vector>
+
+#include <BRepAlgoAPI_Common.hxx>
+#include <BRepBndLib.hxx>
+#include <BRepCheck_Analyzer.hxx>
+#include <BRepExtrema_DistShapeShape.hxx>
+#include <BRepGProp.hxx>
+#include <Bnd_Box.hxx>
+#include <GProp_GProps.hxx>
+#include <TopExp_Explorer.hxx>
+#include <TopoDS.hxx>
+
+#include "geometry/assemble.hpp"
+#include "src/errors.hpp"
+
+namespace bandforge::geom {
+namespace {
+
+// Common volume allowed between two parts [mm³]: round-off of the boolean on touching faces,
+// far below any real overlap (a 0.01 mm interference over 1 mm² is 0.01 mm³).
+constexpr double common_tolerance = 1e-3;
+// Parts that are not meant to touch must keep at least this apart [mm].
+constexpr double least_clearance = 0.01;
+
+double volume_of(const TopoDS_Shape& s) {
+  GProp_GProps props;
+  BRepGProp::VolumeProperties(s, props);
+  return props.Mass();
+}
+
+int solid_count(const TopoDS_Shape& s) {
+  int n = 0;
+  for (TopExp_Explorer ex(s, TopAbs_SOLID); ex.More(); ex.Next()) ++n;
+  return n;
+}
+
+// Boolean common of two solids; zero when the boolean finds nothing shared.
+double common_volume(const TopoDS_Shape& a, const TopoDS_Shape& b) {
+  BRepAlgoAPI_Common common(a, b);
+  if (!common.IsDone() || common.HasErrors()) {
+    throw BuildError("the boolean common failed");
+  }
+  const TopoDS_Shape& r = common.Shape();
+  return r.IsNull() || solid_count(r) == 0 ? 0.0 : volume_of(r);
+}
+
+}  // namespace
+
+void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended) {
+  // Validity and mass properties, per distinct part.
+  m.valid = true;
+  m.solid_ok.assign(m.parts.size(), false);
+  for (std::size_t i = 0; i < m.parts.size(); ++i) {
+    const TopoDS_Shape& s = m.parts[i].shape;
+    PartInfo& info = m.infos[i];
+    GProp_GProps props;
+    BRepGProp::VolumeProperties(s, props);
+    info.volume = props.Mass();
+    info.mass = info.volume * 1e-9 * info.density;  // mm³ → m³
+    // One closed solid, valid, with material inside (an inside-out solid has negative volume).
+    m.solid_ok[i] = solid_count(s) == 1 && BRepCheck_Analyzer(s).IsValid() && info.volume > 0;
+    m.valid = m.valid && m.solid_ok[i];
+  }
+  // Centroid of each part's first instance, in assembly coordinates.
+  const std::vector<BrakeModel::Impl::Placed> placed = m.placed();
+  std::vector<bool> seen(m.parts.size(), false);
+  for (const auto& p : placed) {
+    if (seen[p.part]) continue;
+    seen[p.part] = true;
+    GProp_GProps props;
+    BRepGProp::VolumeProperties(p.shape, props);
+    const gp_Pnt c = props.CentreOfMass();
+    m.infos[p.part].centroid = {c.X(), c.Y(), c.Z()};
+  }
+
+  // Pairwise: bounding boxes first; then intended contacts must not overlap (common volume) and
+  // all other pairs must keep clear (distance, and the overlap when they do not).
+  std::vector<Bnd_Box> boxes(placed.size());
+  for (std::size_t i = 0; i < placed.size(); ++i) BRepBndLib::Add(placed[i].shape, boxes[i]);
+  m.contacts.clear();
+  for (std::size_t i = 0; i < placed.size(); ++i) {
+    for (std::size_t j = i + 1; j < placed.size(); ++j) {
+      Bnd_Box bi = boxes[i];
+      bi.Enlarge(least_clearance);
+      if (bi.IsOut(boxes[j])) continue;
+      ContactCheck c;
+      c.part_a = m.instances[i].name;
+      c.part_b = m.instances[j].name;
+      auto key = std::minmax(c.part_a, c.part_b);
+      c.intended = intended.count({key.first, key.second}) > 0;
+      c.tolerance = common_tolerance;
+      if (!c.intended) {
+        c.min_distance = least_clearance;
+        BRepExtrema_DistShapeShape d(placed[i].shape, placed[j].shape);
+        if (!d.IsDone()) throw BuildError("the distance between " + c.part_a + " and " + c.part_b + " failed");
+        c.distance = d.Value();
+      }
+      // Parts apart by more than the clearance share no volume: skip the boolean.
+      c.common_volume = c.distance > least_clearance ? 0.0
+                                                      : common_volume(placed[i].shape, placed[j].shape);
+      c.ok = c.common_volume <= c.tolerance && (c.intended || c.distance >= c.min_distance);
+      m.contacts.push_back(c);
+    }
+  }
+}
+
+void reject_failures(const BrakeModel::Impl& m) {
+  for (std::size_t i = 0; i < m.parts.size(); ++i) {
+    if (!m.solid_ok[i]) {
+      throw BuildError("cannot build the " + m.infos[i].name +
+                       ": OpenCASCADE made an invalid solid (BRepCheck_Analyzer)");
+    }
+  }
+  // Every failing pair, so that one run shows all that must move.
+  std::string failures;
+  for (const ContactCheck& c : m.contacts) {
+    if (c.ok) continue;
+    char buf[200];
+    if (c.common_volume > c.tolerance) {
+      std::snprintf(buf, sizeof buf, "%s and %s overlap by %.3f mm³ (allowed %.3g mm³)",
+                    c.part_a.c_str(), c.part_b.c_str(), c.common_volume, c.tolerance);
+    } else {
+      std::snprintf(buf, sizeof buf, "%s and %s are %.3f mm apart (they must clear by %.3g mm)",
+                    c.part_a.c_str(), c.part_b.c_str(), c.distance, c.min_distance);
+    }
+    failures.append(failures.empty() ? "" : "; ").append(buf);
+  }
+  if (!failures.empty()) {
+    throw BuildError("the parts interfere: " + failures +
+                     ". Move the pins, the pivot or the handle, or change the plate sizes, so "
+                     "that the parts clear");
+  }
+}
+
+}  // namespace bandforge::geom

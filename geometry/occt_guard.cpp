@@ -1,0 +1,42 @@
+#include "geometry/occt_guard.hpp"
+
+#include <Interface_Static.hxx>
+#include <Message.hxx>
+#include <Message_Messenger.hxx>
+#include <Message_PrinterOStream.hxx>
+
+#include "src/errors.hpp"
+
+namespace bandforge::geom {
+
+QuietOcct::QuietOcct() {
+  const Handle(Message_Messenger)& messenger = Message::DefaultMessenger();
+  saved_ = messenger->Printers();
+  messenger->ChangePrinters().Clear();
+  // The default printer stream is std::cout; the file name "cerr" selects the error stream.
+  messenger->AddPrinter(new Message_PrinterOStream("cerr", false, Message_Fail));
+}
+
+QuietOcct::~QuietOcct() {
+  const Handle(Message_Messenger)& messenger = Message::DefaultMessenger();
+  messenger->ChangePrinters() = saved_;
+}
+
+void StaticSettings::set(const std::string& name, const std::string& value) {
+  const Standard_CString old = Interface_Static::CVal(name.c_str());
+  if (old == nullptr) throw BuildError("OpenCASCADE has no setting " + name);
+  const std::string previous = old;
+  if (!Interface_Static::SetCVal(name.c_str(), value.c_str()) ||
+      value != Interface_Static::CVal(name.c_str())) {
+    throw BuildError("OpenCASCADE refused " + name + " = " + value);
+  }
+  saved_.emplace_back(name, previous);
+}
+
+StaticSettings::~StaticSettings() {
+  for (auto it = saved_.rbegin(); it != saved_.rend(); ++it) {
+    Interface_Static::SetCVal(it->first.c_str(), it->second.c_str());
+  }
+}
+
+}  // namespace bandforge::geom

@@ -1,0 +1,205 @@
+#include "geometry/solids.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <numbers>
+
+#include <BRepBuilderAPI_MakeEdge.hxx>
+#include <BRepBuilderAPI_MakeFace.hxx>
+#include <BRepBuilderAPI_MakeWire.hxx>
+#include <BRepPrimAPI_MakeCylinder.hxx>
+#include <BRepPrimAPI_MakePrism.hxx>
+#include <BRepPrimAPI_MakeRevol.hxx>
+#include <GC_MakeArcOfCircle.hxx>
+#include <GC_MakeSegment.hxx>
+#include <Standard_Failure.hxx>
+#include <TopoDS.hxx>
+#include <TopoDS_Face.hxx>
+#include <TopoDS_Wire.hxx>
+#include <gp_Ax1.hxx>
+#include <gp_Ax2.hxx>
+#include <gp_Circ.hxx>
+#include <gp_Pln.hxx>
+#include <gp_Pnt.hxx>
+#include <gp_Vec.hxx>
+
+namespace bandforge::geom {
+namespace {
+
+constexpr double pi = std::numbers::pi;
+
+Vec2 at(Vec2 c, double radius, double angle) {
+  return {c.x + radius * std::cos(angle), c.y + radius * std::sin(angle)};
+}
+Vec2 add(Vec2 p, Vec2 d, double k) { return {p.x + k * d.x, p.y + k * d.y}; }
+
+// A closed planar wire in the plane z = z0, made of lines and three-point arcs. Every joint is
+// the same point for both edges, so the wire closes exactly.
+class Profile {
+ public:
+  explicit Profile(double z0) : z_(z0) {}
+  void line(Vec2 p, Vec2 q) {
+    wire_.Add(BRepBuilderAPI_MakeEdge(GC_MakeSegment(pnt(p), pnt(q)).Value()).Edge());
+  }
+  void arc(Vec2 p, Vec2 mid, Vec2 q) {
+    wire_.Add(BRepBuilderAPI_MakeEdge(GC_MakeArcOfCircle(pnt(p), pnt(mid), pnt(q)).Value()).Edge());
+  }
+  TopoDS_Wire wire() { return wire_.Wire(); }
+
+ private:
+  gp_Pnt pnt(Vec2 p) const { return gp_Pnt(p.x, p.y, z_); }
+  double z_;
+  BRepBuilderAPI_MakeWire wire_;
+};
+
+// A full circle wire in the plane z = z0, clockwise seen from +z: the orientation of a hole in a
+// face whose outer wire runs counter-clockwise.
+TopoDS_Wire hole_wire(Vec2 c, double radius, double z0) {
+  gp_Circ circ(gp_Ax2(gp_Pnt(c.x, c.y, z0), gp_Dir(0, 0, 1)), radius);
+  TopoDS_Wire w = BRepBuilderAPI_MakeWire(BRepBuilderAPI_MakeEdge(circ).Edge()).Wire();
+  return TopoDS::Wire(w.Reversed());
+}
+
+// Outer wire counter-clockwise seen from +z, holes clockwise, extruded along +z.
+TopoDS_Shape extrude(const TopoDS_Wire& outer, const std::vector<TopoDS_Wire>& holes, double z0,
+                     double height) {
+  // On an explicit +z plane, so that the wire orientations above mean outer and hole.
+  BRepBuilderAPI_MakeFace mf(gp_Pln(gp_Pnt(0, 0, z0), gp_Dir(0, 0, 1)), outer, true);
+  for (const TopoDS_Wire& h : holes) mf.Add(h);
+  if (!mf.IsDone()) throw Standard_Failure("the planar profile does not close");
+  return BRepPrimAPI_MakePrism(mf.Face(), gp_Vec(0, 0, height)).Shape();
+}
+
+double cross(Vec2 o, Vec2 a, Vec2 b) { return (a.x - o.x) * (b.y - o.y) - (a.y - o.y) * (b.x - o.x); }
+
+// Andrew's monotone chain; counter-clockwise, collinear points dropped.
+std::vector<Vec2> convex_hull(std::vector<Vec2> pts) {
+  std::sort(pts.begin(), pts.end(),
+            [](Vec2 p, Vec2 q) { return p.x < q.x || (p.x == q.x && p.y < q.y); });
+  if (pts.size() < 3) return pts;
+  std::vector<Vec2> h(2 * pts.size());
+  std::size_t k = 0;
+  // Points closer than this to a hull edge count as collinear (mm²·scale, relative).
+  auto turns_left = [](Vec2 o, Vec2 a, Vec2 b) {
+    const double scale = std::hypot(a.x - o.x, a.y - o.y) * std::hypot(b.x - o.x, b.y - o.y);
+    return cross(o, a, b) > 1e-12 * scale;
+  };
+  for (std::size_t i = 0; i < pts.size(); ++i) {
+    while (k >= 2 && !turns_left(h[k - 2], h[k - 1], pts[i])) --k;
+    h[k++] = pts[i];
+  }
+  for (std::size_t i = pts.size() - 1, t = k + 1; i > 0; --i) {
+    while (k >= t && !turns_left(h[k - 2], h[k - 1], pts[i - 1])) --k;
+    h[k++] = pts[i - 1];
+  }
+  h.resize(k - 1);
+  return h;
+}
+
+}  // namespace
+
+TopoDS_Shape make_drum(const DrumDims& d) {
+  // Half-section in the xz plane (x = radius), revolved about z.
+  const double r = d.diameter / 2, ri = r - d.rim_thickness, rh = d.hub_diameter / 2,
+               rb = d.bore / 2, w = d.width / 2, web = d.web_thickness / 2, hub = d.hub_length / 2;
+  const double m = w;  // mid-plane
+  const gp_Pnt pts[] = {{rb, 0, m - hub}, {rh, 0, m - hub}, {rh, 0, m - web}, {ri, 0, m - web},
+                        {ri, 0, m - w},   {r, 0, m - w},    {r, 0, m + w},     {ri, 0, m + w},
+                        {ri, 0, m + web}, {rh, 0, m + web}, {rh, 0, m + hub},  {rb, 0, m + hub}};
+  BRepBuilderAPI_MakeWire mw;
+  const std::size_t n = std::size(pts);
+  for (std::size_t i = 0; i < n; ++i) {
+    mw.Add(BRepBuilderAPI_MakeEdge(pts[i], pts[(i + 1) % n]).Edge());
+  }
+  const TopoDS_Face face = BRepBuilderAPI_MakeFace(mw.Wire(), true).Face();
+  return BRepPrimAPI_MakeRevol(face, gp_Ax1(gp_Pnt(0, 0, 0), gp_Dir(0, 0, 1)), 2 * pi).Shape();
+}
+
+TopoDS_Shape make_arc_segment(double r_in, double r_out, double start, int sense, double sweep,
+                              double z0, double width) {
+  const Vec2 o{0, 0};
+  const double end = start + sense * sweep, mid = start + sense * sweep / 2;
+  Profile p(z0);
+  p.arc(at(o, r_in, start), at(o, r_in, mid), at(o, r_in, end));
+  p.line(at(o, r_in, end), at(o, r_out, end));
+  p.arc(at(o, r_out, end), at(o, r_out, mid), at(o, r_out, start));
+  p.line(at(o, r_out, start), at(o, r_in, start));
+  TopoDS_Wire w = p.wire();
+  // Running CCW along the inner arc leaves the sector on the right: reverse to make it CCW.
+  if (sense > 0) w.Reverse();
+  return extrude(w, {}, z0, width);
+}
+
+TopoDS_Shape make_band(const BandPath& p) {
+  const double h = p.thickness / 2;
+  const double eye_outer = p.eye_inner + p.thickness;
+  // Where the strip's offset lines (±h from the run) meet the eye's outer circle.
+  const double x0 = std::sqrt(eye_outer * eye_outer - h * h);
+  struct EndPoints {
+    Vec2 e_out, e_in, t_out, t_in, far;
+  };
+  auto end_points = [&](const BandEndPath& e) {
+    const Vec2 radial{std::cos(e.tangent_angle), std::sin(e.tangent_angle)};
+    const double len = std::hypot(e.tangent_point.x - e.pin.x, e.tangent_point.y - e.pin.y);
+    const Vec2 u{(e.tangent_point.x - e.pin.x) / len, (e.tangent_point.y - e.pin.y) / len};
+    EndPoints q;
+    q.e_out = add(add(e.pin, u, x0), radial, h);
+    q.e_in = add(add(e.pin, u, x0), radial, -h);
+    q.t_out = add(e.tangent_point, radial, h);
+    q.t_in = add(e.tangent_point, radial, -h);
+    q.far = add(e.pin, u, -eye_outer);
+    return q;
+  };
+  const EndPoints a = end_points(p.a), b = end_points(p.b);
+  const double mid = p.a.tangent_angle + p.sense * p.wrap / 2;
+  const double z0 = 0;
+  Profile w(z0);
+  w.line(a.e_out, a.t_out);
+  w.arc(a.t_out, at({0, 0}, p.r_band + h, mid), b.t_out);
+  w.line(b.t_out, b.e_out);
+  w.arc(b.e_out, b.far, b.e_in);
+  w.line(b.e_in, b.t_in);
+  w.arc(b.t_in, at({0, 0}, p.r_band - h, mid), a.t_in);
+  w.line(a.t_in, a.e_in);
+  w.arc(a.e_in, a.far, a.e_out);
+  TopoDS_Wire outer = w.wire();
+  // The band lies left of its outer arc when that arc runs CCW (sense +1).
+  if (p.sense < 0) outer.Reverse();
+  return extrude(outer, {hole_wire(p.a.pin, p.eye_inner, z0), hole_wire(p.b.pin, p.eye_inner, z0)},
+                 z0, p.width);
+}
+
+TopoDS_Shape make_plate(const std::vector<Vec2>& centres, double radius,
+                        const std::vector<Vec2>& holes, double hole_radius, double z0,
+                        double thickness) {
+  const std::vector<Vec2> hull = convex_hull(centres);
+  const std::size_t n = hull.size();
+  if (n < 2) throw Standard_Failure("a plate needs two distinct points");
+  // Outward normal of each hull edge (right of a CCW edge); consecutive edge offsets are joined
+  // by arcs about the hull vertex between them.
+  std::vector<double> normal_angle(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    const Vec2 p = hull[i], q = hull[(i + 1) % n];
+    normal_angle[i] = std::atan2(-(q.x - p.x), q.y - p.y);
+  }
+  Profile w(z0);
+  for (std::size_t i = 0; i < n; ++i) {
+    const std::size_t j = (i + 1) % n;
+    const Vec2 p = hull[i], q = hull[j];
+    w.line(at(p, radius, normal_angle[i]), at(q, radius, normal_angle[i]));
+    double turn = std::fmod(normal_angle[j] - normal_angle[i], 2 * pi);
+    if (turn <= 0) turn += 2 * pi;
+    w.arc(at(q, radius, normal_angle[i]), at(q, radius, normal_angle[i] + turn / 2),
+          at(q, radius, normal_angle[j]));
+  }
+  std::vector<TopoDS_Wire> hole_wires;
+  for (Vec2 c : holes) hole_wires.push_back(hole_wire(c, hole_radius, z0));
+  return extrude(w.wire(), hole_wires, z0, thickness);
+}
+
+TopoDS_Shape make_rod(double radius, double z0, double length) {
+  return BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(0, 0, z0), gp_Dir(0, 0, 1)), radius, length)
+      .Shape();
+}
+
+}  // namespace bandforge::geom

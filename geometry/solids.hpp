@@ -1,0 +1,64 @@
+// Builders for the individual solids, millimetres, OCCT types (geometry/*.cpp only).
+// Each returns one closed solid; the caller names, places and checks it.
+#pragma once
+
+#include <vector>
+
+#include <TopoDS_Shape.hxx>
+
+#include "src/design.hpp"
+
+namespace bandforge::geom {
+
+/// Drum dimensions [mm]: a rim, a web at mid-width and a hub with the bore. In part coordinates
+/// the rim's back face is at z = 0 and its mid-plane at z = width/2.
+struct DrumDims {
+  double diameter = 0;       ///< friction surface D
+  double width = 0;          ///< rim face width w (axial)
+  double rim_thickness = 0;  ///< radial
+  double web_thickness = 0;  ///< axial, centred on the rim's mid-plane
+  double hub_diameter = 0;
+  double hub_length = 0;     ///< axial, centred on the rim's mid-plane
+  double bore = 0;
+};
+
+/// The drum as one revolved profile: the friction surface is a true cylinder of radius D/2.
+TopoDS_Shape make_drum(const DrumDims& d);
+
+/// An annular sector about the z axis from angle `start` turning `sense` (+1 CCW) by `sweep`,
+/// radii r_in..r_out, z from z0 to z0 + width. Used for the lining.
+TopoDS_Shape make_arc_segment(double r_in, double r_out, double start, int sense, double sweep,
+                              double z0, double width);
+
+/// One band end in the front view [mm]: the pin centre and where the centreline meets the circle.
+struct BandEndPath {
+  Vec2 pin;            ///< pin centre E
+  Vec2 tangent_point;  ///< T on the centreline circle
+  double tangent_angle = 0;
+};
+
+/// Band profile [mm]: centreline line–arc–line from pin A to pin B, tangent to `r_band`, offset
+/// ±thickness/2; at each pin an eye (ring of inner radius `eye_inner` = pin radius, wall =
+/// band thickness) that the straight strip runs into. Extruded over z from 0 to width.
+struct BandPath {
+  double r_band = 0;
+  double thickness = 0;
+  double width = 0;
+  double eye_inner = 0;
+  int sense = 1;  ///< +1: the band runs CCW from A to B
+  double wrap = 0;
+  BandEndPath a, b;
+};
+
+TopoDS_Shape make_band(const BandPath& p);
+
+/// A plate in the z = const plane whose outline is the convex hull of discs of `radius` about
+/// `centres`, with round holes of `hole_radius` at `holes`, z from z0 to z0 + thickness.
+TopoDS_Shape make_plate(const std::vector<Vec2>& centres, double radius,
+                        const std::vector<Vec2>& holes, double hole_radius, double z0,
+                        double thickness);
+
+/// A cylinder of `radius` along z from z0 to z0 + length, axis through (0, 0).
+TopoDS_Shape make_rod(double radius, double z0, double length);
+
+}  // namespace bandforge::geom

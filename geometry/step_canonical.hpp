@@ -1,0 +1,28 @@
+// A post-write pass that makes STEP bytes reproducible. OCCT numbers entity instances in the
+// order its maps hand them out, and some of those maps are keyed by memory address (colours),
+// so two processes can write the same model with different numbering. This pass renumbers the
+// DATA section in an order that depends only on the content. Plain text, no OCCT.
+#pragma once
+
+#include <array>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace bandforge::geom {
+
+/// Rewrites an ISO 10303-21 clear-text file: the header is kept as it is; the DATA section's
+/// entity instances are renumbered #1, #2, ... in a depth-first order from the unreferenced
+/// instances (sorted by a content hash), each written on one line. Throws BuildError when the
+/// text is not a Part 21 file this pass understands.
+std::string canonical_step(std::string_view text);
+
+/// Writes each COLOUR_RGB whose components all lie within 1e-6 of one of `exact` (sRGB, 0..1)
+/// with that colour's exact values. OCCT 7.6 keeps colours as 32-bit floats in linear RGB and
+/// writes them back as e.g. 0.750000000934; the file should carry the values the design chose.
+std::string exact_colours(std::string_view text, const std::vector<std::array<double, 3>>& exact);
+
+/// A Part 21 REAL: shortest round-trip decimal with a decimal point ("0.75", "1.", "1.5E-07").
+std::string part21_real(double v);
+
+}  // namespace bandforge::geom

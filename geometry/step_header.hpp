@@ -1,0 +1,32 @@
+// The STEP header and assembly name taken from the design's [project] block. No OCCT.
+#pragma once
+
+#include <string>
+
+#include "src/design.hpp"
+
+namespace bandforge::geom {
+
+/// Strings ready for the Part 21 header (non-ASCII characters encoded as \X2\...\X0\).
+struct StepHeader {
+  std::string assembly;       ///< top assembly product name: "<number> <title>"
+  std::string file_name;      ///< FILE_NAME.name
+  std::string time_stamp;     ///< ISO 8601, never the clock (see step_time_stamp)
+  std::string description;    ///< FILE_DESCRIPTION: title and revision
+  std::string author;         ///< [project] creator
+  std::string organization;   ///< [project] owner
+  std::string authorisation;  ///< [project] approver
+  std::string system;         ///< "bandforge <version>"
+};
+
+StepHeader step_header(const Design& design, const std::string& file_name);
+
+/// The header time: the design's [project] date at T00:00:00 when it is an ISO date, else
+/// SOURCE_DATE_EPOCH (seconds, UTC), else 1970-01-01T00:00:00. Never the clock, so that the
+/// same design gives the same bytes.
+std::string step_time_stamp(const std::string& project_date, const char* source_date_epoch);
+
+/// A Part 21 string body for UTF-8 text: ASCII kept, everything else as \X2\hhhh...\X0\.
+std::string part21_text(const std::string& utf8);
+
+}  // namespace bandforge::geom
