@@ -111,7 +111,13 @@ std::vector<std::string> general_notes(const Design& d, UnitSystem u) {
 
 // ---- zones ---------------------------------------------------------------------------------
 
-constexpr double kNotesLines = 4;
+constexpr double kNotesLines = 6;
+
+// Tables, notes, caution and title block: nothing else may be drawn over them.
+std::vector<Box> obstacles(const Zones& z) {
+  return {z.title_block.grown(1), z.caution.grown(1), z.parts.grown(1), z.results.grown(1),
+          z.notes.grown(1)};
+}
 
 Zones make_zones(const Canvas& c, const SheetSize& s, double results_h, double parts_h) {
   Zones z;
@@ -129,8 +135,7 @@ Zones make_zones(const Canvas& c, const SheetSize& s, double results_h, double p
     z.results = {z.title_block.x0, z.parts.y1 + kGap, z.title_block.x1, z.parts.y1 + kGap + results_h};
     z.notes = {f.x0 + kGap, z.results.y1 + kGap, f.x1 - kGap, z.results.y1 + kGap + notes_h};
   }
-  const double bottom = std::max({z.parts.y1, z.notes.y1, z.results.y1}) + kGap;
-  z.views = {f.x0 + 2, bottom, f.x1 - 2, f.y1 - 2};
+  z.views = {f.x0 + 2, f.y0 + 2, f.x1 - 2, f.y1 - 2};
   return z;
 }
 
@@ -172,19 +177,19 @@ bool dims_below(const Features& f) { return f.a.y + f.b.y + f.pivot.y <= 0; }
 bool dims_left(const Features& f) { return f.handle.x >= f.pivot.x; }
 
 Margins front_margins(const Features& f) {
-  const size_t nx = distinct({std::abs(f.pivot.x), std::abs(f.a.x), std::abs(f.b.x)}).size() +
-                    (f.handle.x != 0 ? 1 : 0);
-  const size_t ny = distinct({std::abs(f.pivot.y), std::abs(f.a.y), std::abs(f.b.y)}).size();
-  Margins m{14, 14, 14, 14};
-  const double h = 10 + kLevel * static_cast<double>(nx);
-  const double v = 10 + kLevel * static_cast<double>(ny);
-  (dims_below(f) ? m.bottom : m.top) += h;
-  (dims_left(f) ? m.left : m.right) += v;
-  m.top += 8;  // wrap-angle arc and its text
+  const size_t nx = distinct({f.pivot.x, f.a.x, f.b.x}).size();
+  const size_t ny = distinct({f.pivot.y, f.a.y, f.b.y}).size();
+  Margins m{6, 6, 6, 6};
+  // First dimension line 8 mm off the view, then one level each, then the text.
+  const double h = 8 + kLevel * (std::max<double>(1, static_cast<double>(nx)) - 1) + 5;
+  const double v = 8 + kLevel * (std::max<double>(1, static_cast<double>(ny)) - 1) + 5;
+  (dims_below(f) ? m.bottom : m.top) = h;
+  (dims_left(f) ? m.left : m.right) = v;
+  m.top = std::max(m.top, 14.0);  // wrap-angle arc and its text
   return m;
 }
 
-Margins side_margins() { return {10, 10 + 2 * kLevel, 8 + 2 * kLevel, 10}; }
+Margins side_margins() { return {6, 8 + 2 * kLevel, 8 + 2 * kLevel, 6}; }
 
 }  // namespace
 
@@ -240,20 +245,42 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
     tried = standard_scales();
   }
   const double gap = 12;
+  const auto blocked = obstacles(plan.zones);
   for (const Scale& sc : tried) {
     const double k = sc.factor();
-    const double fw = (F.max.x - F.min.x) * k + fm.left + fm.right;
-    const double sw = (S.max.x - S.min.x) * k + sm.left + sm.right;
-    // Both views share the drum axis height (projection lines are horizontal).
-    const double top = std::max(F.max.y * k + fm.top, S.max.y * k + sm.top);
-    const double bottom = std::min(F.min.y * k - fm.bottom, S.min.y * k - sm.bottom);
-    const double w = fw + gap + sw, h = top - bottom;
-    if (w > area.width() || h > area.height()) continue;
+    // Boxes of the two views with their annotation margins, relative to the front origin; the
+    // side view shares the drum axis height (projection lines are horizontal).
+    const Box fr{F.min.x * k - fm.left, F.min.y * k - fm.bottom, F.max.x * k + fm.right, F.max.y * k + fm.top};
+    const double dx = fr.x1 + gap + sm.left - S.min.x * k;
+    const Box sr{dx + S.min.x * k - sm.left, S.min.y * k - sm.bottom, dx + S.max.x * k + sm.right,
+                 S.max.y * k + sm.top};
+    const double gw = sr.x1 - fr.x0, gh = std::max(fr.y1, sr.y1) - std::min(fr.y0, sr.y0);
+    if (gw > area.width() || gh > area.height()) continue;
+    // Scan origins on a 2 mm grid for the free spot nearest the top centre of the sheet.
+    const Pt target{(area.x0 + area.x1) / 2, area.y1 - gh / 2};
+    bool found = false;
+    Pt best;
+    double best_score = 1e18;
+    for (double ox = area.x0 - fr.x0; ox + sr.x1 <= area.x1; ox += 2) {
+      for (double oy = area.y1 - std::max(fr.y1, sr.y1); oy + std::min(fr.y0, sr.y0) >= area.y0; oy -= 2) {
+        const Box a{fr.x0 + ox, fr.y0 + oy, fr.x1 + ox, fr.y1 + oy};
+        const Box b{sr.x0 + ox, sr.y0 + oy, sr.x1 + ox, sr.y1 + oy};
+        bool ok = true;
+        for (const Box& o : blocked) ok = ok && !a.overlaps(o) && !b.overlaps(o);
+        if (!ok) continue;
+        const Pt centre{(fr.x0 + sr.x1) / 2 + ox, (std::min(fr.y0, sr.y0) + std::max(fr.y1, sr.y1)) / 2 + oy};
+        const double score = std::hypot(centre.x - target.x, centre.y - target.y);
+        if (score < best_score) {
+          best_score = score;
+          best = {ox, oy};
+          found = true;
+        }
+      }
+    }
+    if (!found) continue;
     plan.scale = sc;
-    const double x0 = area.x0 + (area.width() - w) / 2;
-    const double ytop = area.y1 - (area.height() - h) / 2;
-    plan.front_origin = {x0 + fm.left - F.min.x * k, ytop - top};
-    plan.side_origin = {x0 + fw + gap + sm.left - S.min.x * k, ytop - top};
+    plan.front_origin = best;
+    plan.side_origin = {best.x + dx, best.y};
     plan.drum_centre = plan.front_origin;
     plan.views_box = {plan.front_origin.x + F.min.x * k,
                       plan.front_origin.y + std::min(F.min.y, S.min.y) * k,
@@ -442,6 +469,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
   const Zones& z = plan.zones;
   Occupancy occ;
   occ.set_limits(z.views);
+  for (const Box& o : obstacles(z)) occ.add_box(o);
   Ctx x{c, occ, notes, u};
 
   const double r = L.r * kM, t_l = d.lining.thickness * kM, t = d.band.thickness * kM;
@@ -495,12 +523,13 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
   {
     const double rim = drum_proportions(d.drum).rim_thickness * kM;
     const double zx0 = b / 2 - 14, zx1 = std::max(w, b) / 2 + 10;
-    const Box window{zx0, r - std::max(rim, 6.0) - 2, zx1, band_outer + 8};
-    // Largest ISO 5455 scale (enlargements allowed for details) giving a detail ≤ 75 × 55 mm.
-    const double scales[] = {10, 5, 2, 1};
-    double kd = 0;
-    for (double sc : scales) {
-      if (window.width() * sc <= 75 && window.height() * sc <= 55 && sc >= 2 * k) {
+    (void)rim;
+    const Box window{zx0, r - 6, zx1, band_outer + 6};
+    // Largest ISO 5455 scale (enlargements allowed for details) giving a detail ≤ 80 × 60 mm.
+    const int scales[] = {10, 5, 2, 1};
+    int kd = 0;
+    for (int sc : scales) {
+      if (window.width() * sc <= 80 && window.height() * sc <= 60 && sc >= 2 * k) {
         kd = sc;
         break;
       }
@@ -523,7 +552,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
         c.pen(Pen::narrow);
         const Box frame{box.x0, box.y0 + label_h, box.x1, box.y1};
         c.rect(frame);
-        const std::string label = "DETAIL X (" + std::string(kd >= 1 ? sig_figs(kd, 2) + ":1" : "1:1") + ")";
+        const std::string label = "DETAIL X (" + std::to_string(kd) + ":1)";
         c.text({box.x0, box.y0 + 0.5}, label, Lettering::heading);
         occ.add_box(box.grown(1));
         // Mark the detailed region on the side view.
@@ -658,8 +687,12 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
       dd.p2 = front(F);
       dd.along = unit(dd.p2 - dd.p1);
       const Pt n{-dd.along.y, dd.along.x};
+      // On the perpendicular itself first, then offset to either side with extension lines.
       dd.levels = {dot(dd.p1, n)};
-      dd.ext1 = dd.ext2 = false;
+      for (int j = 1; j <= 4; ++j) {
+        dd.levels.push_back(dot(dd.p1, n) + 6.0 * j);
+        dd.levels.push_back(dot(dd.p1, n) - 6.0 * j);
+      }
       dd.text = "(" + dim_length(std::abs(e.arm), u) + ")";
       dim_or_note(x, dd, std::string("perpendicular arm of run ") + (i == 0 ? "A" : "B"));
     }

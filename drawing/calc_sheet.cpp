@@ -2,6 +2,8 @@
 
 #include <algorithm>
 #include <cmath>
+#include <filesystem>
+#include <optional>
 #include <numbers>
 
 #include "drawing/format.hpp"
@@ -68,8 +70,41 @@ Block table_block(Table t) {
     fit_width(f, w);
     draw_table(c, f, p);
   };
+  // Split between rows, the header repeated on the continuation; at least two rows each side.
+  b.split = [t](const Canvas& c, double w, double avail) -> std::optional<std::pair<Block, Block>> {
+    Table f = t;
+    fit_width(f, w);
+    const size_t body = f.rows.size() - (f.header ? 1 : 0);
+    const size_t n = rows_fitting(c, f, avail);
+    if (n < 2 || body < 4 || n + 2 > body) return std::nullopt;
+    const size_t first = f.header ? 1 : 0;
+    return std::make_pair(table_block(table_rows(t, first, first + n)),
+                          table_block(table_rows(t, first + n, t.rows.size())));
+  };
   return b;
 }
+
+/// Numbered sources: tables cite "[n]", one list gives the full text.
+class Refs {
+ public:
+  std::string cite(const std::string& source) {
+    if (source.empty()) return "";
+    for (size_t i = 0; i < list_.size(); ++i) {
+      if (list_[i] == source) return "[" + std::to_string(i + 1) + "]";
+    }
+    list_.push_back(source);
+    return "[" + std::to_string(list_.size()) + "]";
+  }
+  std::vector<std::string> lines() const {
+    std::vector<std::string> out;
+    for (size_t i = 0; i < list_.size(); ++i) out.push_back("[" + std::to_string(i + 1) + "] " + list_[i]);
+    return out;
+  }
+  bool empty() const { return list_.empty(); }
+
+ private:
+  std::vector<std::string> list_;
+};
 
 // Plain value in the display unit, trailing zeros dropped ("400", "0.125").
 std::string plain(double si, Quantity q, UnitSystem u, int decimals) {
@@ -145,9 +180,9 @@ std::vector<std::string> method_items(const Design& d, const Solution& s) {
   return m;
 }
 
-Table inputs_table(const Design& d, const Solution& s, UnitSystem u) {
+Table inputs_table(const Design& d, const Solution& s, UnitSystem u, Refs& refs) {
   Table t;
-  t.widths = {58, 18, 50, 60};
+  t.widths = {62, 20, 62, 42};
   t.rows.push_back({"Input", "Symbol", "Value", "Source / note"});
   auto row = [&](std::string a, std::string b, std::string c, std::string e = "") {
     t.rows.push_back({std::move(a), std::move(b), std::move(c), std::move(e)});
@@ -159,23 +194,23 @@ Table inputs_table(const Design& d, const Solution& s, UnitSystem u) {
   if (!d.drum.material.empty()) {
     row("Drum material", "", d.drum.material,
         "ρ = " + sig_figs(d.drum.density, 4) + " kg/m³, c = " +
-            sig_figs(d.drum.specific_heat, 3) + " J/(kg·K); " + d.drum.material_source);
+            sig_figs(d.drum.specific_heat, 3) + " J/(kg·K) " + refs.cite(d.drum.material_source));
   }
   row("Lining", "", d.lining.material.empty() ? "explicit values" : d.lining.material);
   row("Friction coefficient", "f", fnum(d.lining.friction) + " (" + fnum(d.lining.friction_min) +
                                         " … " + fnum(d.lining.friction_max) + ")",
-      d.lining.friction_source);
+      refs.cite(d.lining.friction_source));
   if (d.lining.pressure_limit > 0) {
     row("Lining pressure limit", "p_allow", qty(d.lining.pressure_limit, Quantity::stress, u),
-        d.lining.pressure_source);
+        refs.cite(d.lining.pressure_source));
   }
   if (d.lining.temperature_limit > 0) {
     row("Lining temperature limit", "", qty(d.lining.temperature_limit, Quantity::temperature, u, 3),
-        d.lining.temperature_source);
+        refs.cite(d.lining.temperature_source));
   }
   if (d.lining.power_limit > 0) {
     row("Lining power limit", "q_allow", qty(d.lining.power_limit, Quantity::power_density, u, 3),
-        d.lining.power_source);
+        refs.cite(d.lining.power_source));
   }
   row("Lining thickness", "t_lining", len(d.lining.thickness, u));
   row("Band width", "b", len(d.band.width, u));
@@ -505,14 +540,12 @@ Plot lever_plot(const Design& d, const Solution& s, UnitSystem u) {
   return p;
 }
 
-Block plots_block(Plot left, Plot right) {
+Block plot_block(Plot plot) {
+  constexpr double kHeight = 72;
   Block b;
-  b.height = [](const Canvas&, double) { return 62.0; };
-  b.draw = [left, right](Canvas& c, Pt p, double w) {
-    const double half = (w - 6) / 2;
-    draw_plot(c, left, {p.x, p.y - 62, p.x + half, p.y});
-    draw_plot(c, right, {p.x + half + 6, p.y - 62, p.x + w, p.y});
-  };
+  b.height = [](const Canvas&, double) { return kHeight; };
+  b.draw = [plot](Canvas& c, Pt p, double w) { draw_plot(c, plot, {p.x, p.y - kHeight, p.x + w, p.y}); };
+  b.space_after = 5;
   return b;
 }
 
@@ -543,8 +576,12 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSy
   std::vector<Block> b;
   b.push_back(heading("1  Method"));
   b.push_back(paragraphs(method_items(d, s), true));
-  b.push_back(heading("2  Inputs (design file " + d.file + ")"));
-  b.push_back(table_block(inputs_table(d, s, u)));
+  Refs refs;
+  b.push_back(heading("2  Inputs (design file " + std::filesystem::path(d.file).filename().string() + ")"));
+  b.push_back(table_block(inputs_table(d, s, u, refs)));
+  if (!refs.empty()) {
+    b.push_back(paragraphs(refs.lines(), false));
+  }
   b.push_back(heading(s.layout.from_pins ? "3  Layout from the pins" : "3  Concept layout"));
   b.push_back(table_block(layout_table(d, s, u)));
   b.push_back(heading("4  Forces and stresses, both rotations, f_min / f_nominal / f_max"));
@@ -558,7 +595,8 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSy
     b.push_back(paragraphs(s.warnings, true));
   }
   b.push_back(heading(s.warnings.empty() ? "7  Plots" : "8  Plots"));
-  b.push_back(plots_block(tension_plot(d, s, u), lever_plot(d, s, u)));
+  b.push_back(plot_block(tension_plot(d, s, u)));
+  b.push_back(plot_block(lever_plot(d, s, u)));
   return b;
 }
 

@@ -44,8 +44,9 @@ std::vector<Box> calc_columns(const SheetSize& s, const Box& caution) {
   const double top = f.y1 - m;
   const double bottom = caution.y1 + m;
   if (s.width < s.height) return {{f.x0 + m, bottom, f.x1 - m, top}};
+  // The left column runs down to the frame; the right one stops above the caution.
   const double w = (f.width() - 3 * m) / 2;
-  return {{f.x0 + m, bottom, f.x0 + m + w, top}, {f.x0 + 2 * m + w, bottom, f.x1 - m, top}};
+  return {{f.x0 + m, f.y0 + m, f.x0 + m + w, top}, {f.x0 + 2 * m + w, bottom, f.x1 - m, top}};
 }
 
 }  // namespace
@@ -114,7 +115,7 @@ std::string render_drawing(const Design& design, const Solution& solution,
   const Box caution = caution_box(c, s);
   const std::vector<Block> blocks = calculation_blocks(design, solution, units);
   int calc_pages = 0;
-  const std::vector<Placement> placed = flow(c, blocks, calc_columns(s, caution), &calc_pages);
+  const std::vector<Placed> placed = flow(c, blocks, calc_columns(s, caution), &calc_pages);
   const int first_calc = plan.assembly ? 2 : 1;
   plan.pages = first_calc - 1 + calc_pages;
 
@@ -135,8 +136,8 @@ std::string render_drawing(const Design& design, const Solution& solution,
   for (int p = 0; p < calc_pages; ++p) {
     c.new_page(s.width, s.height);
     draw_frame(c, s);
-    for (const Placement& pl : placed) {
-      if (pl.page == p) blocks[pl.block].draw(c, pl.top_left, pl.width);
+    for (const Placed& pl : placed) {
+      if (pl.page == p) pl.block.draw(c, pl.top_left, pl.width);
     }
     draw_caution(c, caution);
     t.doc_type = "Calculation sheet";

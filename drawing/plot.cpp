@@ -2,6 +2,8 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
+#include <cstdio>
 #include <numbers>
 
 #include "drawing/format.hpp"
@@ -95,13 +97,50 @@ void draw_plot(Canvas& c, const Plot& p, Box frame) {
       c.text({a.x - 0.8, a.y + 1.5}, l.label, hs, Align::left, std::numbers::pi / 2, l.ink);
     }
   }
+  std::vector<Pt> drawn;  // every curve point on the sheet, to keep the legend off the curves
   for (const Series& s : p.series) {
     if (s.points.size() < 2) continue;
     std::vector<Pt> q;
     for (Pt d : s.points) q.push_back(map({d.x, clip_y(d.y)}));
     c.pen(s.pen);
     c.polyline(q);
-    if (!s.label.empty()) c.text({q.back().x - 1, q.back().y + 1}, s.label, hs, Align::right);
+    drawn.insert(drawn.end(), q.begin(), q.end());
+  }
+  // Legend in the axes corner that the curves leave free.
+  double lw = 0;
+  int n = 0;
+  for (const Series& s : p.series) {
+    if (s.label.empty()) continue;
+    lw = std::max(lw, c.text_width(s.label, hs));
+    ++n;
+  }
+  if (n > 0) {
+    const double row = hs * 1.8, bw = 12 + lw + 2, bh = n * row + 1.5;
+    const Box corners[4] = {{ax.x0 + 1.5, ax.y1 - 1.5 - bh, ax.x0 + 1.5 + bw, ax.y1 - 1.5},
+                            {ax.x1 - 1.5 - bw, ax.y1 - 1.5 - bh, ax.x1 - 1.5, ax.y1 - 1.5},
+                            {ax.x1 - 1.5 - bw, ax.y0 + 1.5, ax.x1 - 1.5, ax.y0 + 1.5 + bh},
+                            {ax.x0 + 1.5, ax.y0 + 1.5, ax.x0 + 1.5 + bw, ax.y0 + 1.5 + bh}};
+    size_t best = 0, best_hits = SIZE_MAX;
+    for (size_t i = 0; i < 4; ++i) {
+      size_t hits = 0;
+      for (Pt q : drawn) hits += q.x >= corners[i].x0 && q.x <= corners[i].x1 && q.y >= corners[i].y0 && q.y <= corners[i].y1;
+      if (hits < best_hits) {
+        best = i;
+        best_hits = hits;
+      }
+    }
+    const Box lb = corners[best];
+    c.fill_rect(lb, {1, 1, 1});
+    c.pen(Pen::fine);
+    c.rect(lb);
+    double y = lb.y1 - row + 0.3;
+    for (const Series& s : p.series) {
+      if (s.label.empty()) continue;
+      c.pen(s.pen);
+      c.line({lb.x0 + 1.5, y + hs / 2}, {lb.x0 + 10, y + hs / 2});
+      c.text({lb.x0 + 12, y}, s.label, hs);
+      y -= row;
+    }
   }
   c.pen(Pen::narrow);
 }

@@ -8,7 +8,7 @@
 namespace bandforge::drawing {
 namespace {
 
-double pitch(const Table& t) { return t.h * 1.65; }  // ISO 3098 line pitch for lower case ≈ 1.5–1.9 h
+double pitch(const Table& t) { return t.h * 1.5; }  // ISO 3098 line pitch, tight end of 1.5–1.9 h
 
 std::vector<std::string> cell_lines(const Canvas& c, const Table& t, size_t col, const std::string& s) {
   if (s.empty()) return {};
@@ -20,12 +20,31 @@ double row_height(const Canvas& c, const Table& t, const std::vector<std::string
   for (size_t i = 0; i < row.size() && i < t.widths.size(); ++i) {
     lines = std::max(lines, cell_lines(c, t, i, row[i]).size());
   }
-  return static_cast<double>(lines) * pitch(t) + 0.9 * t.h;
+  return static_cast<double>(lines) * pitch(t) + 0.6 * t.h;
 }
 
 }  // namespace
 
 double Table::width() const { return std::accumulate(widths.begin(), widths.end(), 0.0); }
+
+Table table_rows(const Table& t, size_t first, size_t last) {
+  Table part = t;
+  part.rows.clear();
+  if (t.header && !t.rows.empty()) part.rows.push_back(t.rows[0]);
+  for (size_t i = first; i < last && i < t.rows.size(); ++i) part.rows.push_back(t.rows[i]);
+  return part;
+}
+
+size_t rows_fitting(const Canvas& c, const Table& t, double height) {
+  double used = t.header && !t.rows.empty() ? row_height(c, t, t.rows[0]) : 0;
+  size_t n = 0;
+  for (size_t i = t.header ? 1 : 0; i < t.rows.size(); ++i) {
+    used += row_height(c, t, t.rows[i]);
+    if (used > height) break;
+    ++n;
+  }
+  return n;
+}
 
 void fit_width(Table& t, double width) {
   const double k = width / t.width();
@@ -52,7 +71,7 @@ double draw_table(Canvas& c, const Table& t, Pt top_left) {
       const Align a = i < t.align.size() ? t.align[i] : Align::left;
       const bool fail = !t.fail_marker.empty() && row[i].rfind(t.fail_marker, 0) == 0;
       const Ink ink = fail ? Ink{0.8, 0, 0} : Ink{};
-      double ty = y - 0.45 * t.h - t.h - (pitch(t) - t.h) / 2;
+      double ty = y - 0.3 * t.h - (pitch(t) - t.h) / 2 - t.h;
       for (const auto& line : lines) {
         const double tx = a == Align::left    ? x + t.pad
                           : a == Align::right ? x + t.widths[i] - t.pad

@@ -28,6 +28,12 @@ double table_height(const Canvas& c, const Table& t);
 /// Draws with the top-left corner at `top_left`; returns the height used.
 double draw_table(Canvas& c, const Table& t, Pt top_left);
 
+/// A table of the header (if any) and rows [first, last) of `t`.
+Table table_rows(const Table& t, size_t first, size_t last);
+
+/// How many body rows (after the header) fit, header included, in `height`.
+size_t rows_fitting(const Canvas& c, const Table& t, double height);
+
 /// Scales the columns so that the table is exactly `width` wide.
 void fit_width(Table& t, double width);
 

@@ -1096,8 +1096,8 @@ clearance = "1.5 mm"           # radial clearance when released (default 1.5 mm)
 [lever]
 pivot = ["90 mm", "-190 mm"]   # pivot centre [x, y]
 handle = ["-450 mm", "-190 mm"] # where the operator's force acts, perpendicular to pivot→handle
-width = "30 mm"                # plate width in the view plane
-thickness = "10 mm"            # plate thickness along the drum axis
+width = "45 mm"                # plate width in the view plane
+thickness = "12 mm"            # plate thickness along the drum axis
 allowable_stress = "100 MPa"   # allowable bending stress
 
 [load]                         # give exactly one of torque / lever_force

@@ -409,12 +409,21 @@ std::string case_note(const Layout& L, const DirectionResult& r) {
          "), f = " + fmt("%g", r.friction);
 }
 
+// The cases a strength check must cover. With [load] torque the requirement is the torque in the
+// design rotation, so the reverse direction's forces (the same torque the other way, needing
+// e^(fφ) times the operator force) are hypothetical: they are reported and warned about, not
+// checked. With [load] lever_force the same hand force acts in either rotation, so both are real.
+enum class Scope { design_rotation, both_rotations };
+
 template <class Field>
-const DirectionResult& worst_case(const Solution& s, Field field) {
-  const DirectionResult* worst = &s.results[0][0];
-  for (const auto& dir : s.results)
-    for (const auto& r : dir)
+const DirectionResult& worst_case(const Solution& s, Scope scope, Field field) {
+  const int primary = s.primary_a_tight ? 0 : 1;
+  const DirectionResult* worst = &s.results[primary][0];
+  for (int dir = 0; dir < 2; ++dir) {
+    if (scope == Scope::design_rotation && dir != primary) continue;
+    for (const auto& r : s.results[dir])
       if (field(r) > field(*worst)) worst = &r;
+  }
   return *worst;
 }
 
@@ -473,16 +482,17 @@ Thermal thermal_of(const Design& d, const Solution& s) {
 void add_checks(const Design& d, Solution& s) {
   const Layout& L = s.layout;
   const bool torque_mode = d.load.given == Load::Given::torque;
+  const Scope scope = torque_mode ? Scope::design_rotation : Scope::both_rotations;
 
   if (d.lining.pressure_limit > 0) {
-    const auto& w = worst_case(s, [](const DirectionResult& r) { return r.pressure_max; });
+    const auto& w = worst_case(s, scope, [](const DirectionResult& r) { return r.pressure_max; });
     s.checks.push_back(make_check("lining_pressure", "Lining pressure at the tight end",
                                   w.pressure_max, d.lining.pressure_limit, "Pa", true,
                                   or_default(d.lining.pressure_source, "design file [lining] pressure_limit"),
                                   case_note(L, w)));
   }
   if (d.band.allowable_stress > 0 && d.band.thickness > 0) {
-    const auto& w = worst_case(s, [](const DirectionResult& r) { return r.band_stress; });
+    const auto& w = worst_case(s, scope, [](const DirectionResult& r) { return r.band_stress; });
     s.checks.push_back(make_check("band_stress", "Band tensile stress, gross section",
                                   w.band_stress, d.band.allowable_stress, "Pa", true,
                                   "design file [band] allowable_stress", case_note(L, w)));
@@ -491,7 +501,7 @@ void add_checks(const Design& d, Solution& s) {
     // The reader fills in the default allowable_stress/√3; repeat it for hand-built designs.
     const double limit = d.band.pin_allowable_shear > 0 ? d.band.pin_allowable_shear
                                                         : d.band.allowable_stress / std::sqrt(3.0);
-    const auto& w = worst_case(s, [](const DirectionResult& r) { return r.pin_shear; });
+    const auto& w = worst_case(s, scope, [](const DirectionResult& r) { return r.pin_shear; });
     s.checks.push_back(make_check("pin_shear", "Tight-end pin, double shear", w.pin_shear, limit,
                                   "Pa", true,
                                   "design file [band] pin_allowable_shear (default "
@@ -499,7 +509,7 @@ void add_checks(const Design& d, Solution& s) {
                                   case_note(L, w)));
   }
   if (d.lever.allowable_stress > 0 && d.lever.width > 0 && d.lever.thickness > 0) {
-    const auto& w = worst_case(s, [](const DirectionResult& r) { return r.lever_stress; });
+    const auto& w = worst_case(s, scope, [](const DirectionResult& r) { return r.lever_stress; });
     s.checks.push_back(make_check("lever_bending", "Lever bending, net section at a pin hole",
                                   w.lever_stress, d.lever.allowable_stress, "Pa", true,
                                   "design file [lever] allowable_stress", case_note(L, w)));

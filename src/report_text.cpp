@@ -19,9 +19,13 @@ class Out {
     return format_quantity(v, k, units_, digits);
   }
   std::string point(const Vec2& p) const {
-    return "(" + num(to_display(p.x, Quantity::length, units_)) + ", " +
-           num(to_display(p.y, Quantity::length, units_)) + ") " +
-           display_unit(Quantity::length, units_);
+    std::string out = "(";
+    out.append(num(to_display(p.x, Quantity::length, units_)))
+        .append(", ")
+        .append(num(to_display(p.y, Quantity::length, units_)))
+        .append(") ")
+        .append(display_unit(Quantity::length, units_));
+    return out;
   }
   static std::string num(double v, int digits = 4) {
     char buf[64];
@@ -211,8 +215,9 @@ void checks(Out& o, const Solution& s) {
     auto show = [&](double v) {
       return k == Quantity::dimensionless ? Out::num(v, 4) : o.q(v, k);
     };
-    o.line(std::string("  ") + (c.ok ? "[ ok ] " : "[FAIL] ") + Out::pad(c.title, 36) +
-           Out::pad(show(c.value) + (c.upper ? " ≤ " : " ≥ ") + show(c.limit), 30) + c.note);
+    o.line(std::string("  ") + (c.ok ? "[ ok ] " : "[FAIL] ") + c.title);
+    o.line("         " + show(c.value) + (c.upper ? " ≤ " : " ≥ ") + show(c.limit) +
+           (c.note.empty() ? "" : "   (" + c.note + ")"));
     o.line("         limit: " + c.source);
   }
   if (!s.warnings.empty()) {

@@ -14,7 +14,7 @@ namespace fs = std::filesystem;
 
 namespace {
 
-struct Run {
+struct Result {
   int status = -1;
   std::string out;
   std::string err;
@@ -33,10 +33,10 @@ std::string slurp(const fs::path& p) {
   return s.str();
 }
 
-Run run(const std::string& args) {
+Result run(const std::string& args) {
   const fs::path err = scratch() / "stderr.txt";
   const std::string cmd = std::string(BANDFORGE_EXE) + " " + args + " 2>" + err.string();
-  Run r;
+  Result r;
   FILE* p = ::popen(cmd.c_str(), "r");
   if (!p) return r;
   char buf[4096];
@@ -72,7 +72,7 @@ int line_of(const fs::path& file, const std::string& needle) {
 // A bad design exits 2 and the message names the file, the key and (when given) the line.
 void expect_design_error(const fs::path& file, const std::string& key, int line,
                          const std::string& also = "") {
-  const Run r = run("solve " + file.string());
+  const Result r = run("solve " + file.string());
   EXPECT_EQ(r.status, 2) << r.err;
   EXPECT_NE(r.err.find(file.string()), std::string::npos) << r.err;
   EXPECT_NE(r.err.find(key), std::string::npos) << "key '" << key << "' not named in: " << r.err;
@@ -80,21 +80,23 @@ void expect_design_error(const fs::path& file, const std::string& key, int line,
     EXPECT_NE(r.err.find(":" + std::to_string(line) + ":"), std::string::npos)
         << "line " << line << " not named in: " << r.err;
   }
-  if (!also.empty()) EXPECT_NE(r.err.find(also), std::string::npos) << r.err;
+  if (!also.empty()) {
+    EXPECT_NE(r.err.find(also), std::string::npos) << r.err;
+  }
   EXPECT_TRUE(r.out.empty()) << "a failed solve printed results: " << r.out;
 }
 
 }  // namespace
 
 TEST(Cli, ExampleSolvesAndPrintsTheCaution) {
-  const Run r = run("solve " + kExample.string());
+  const Result r = run("solve " + kExample.string());
   ASSERT_EQ(r.status, 0) << r.err;
   EXPECT_NE(r.out.find("licensed engineer"), std::string::npos);
   EXPECT_NE(r.out.find("wrap angle"), std::string::npos);
 }
 
 TEST(Cli, UsUnitsShowInchesAndPoundForce) {
-  const Run r = run("solve --units us " + kExample.string());
+  const Result r = run("solve --units us " + kExample.string());
   ASSERT_EQ(r.status, 0) << r.err;
   EXPECT_NE(r.out.find(" in"), std::string::npos);
   EXPECT_NE(r.out.find("lbf"), std::string::npos);
@@ -102,7 +104,7 @@ TEST(Cli, UsUnitsShowInchesAndPoundForce) {
 }
 
 TEST(Cli, JsonCarriesTheContractKeys) {
-  const Run r = run("solve --json " + kExample.string());
+  const Result r = run("solve --json " + kExample.string());
   ASSERT_EQ(r.status, 0) << r.err;
   const auto j = nlohmann::json::parse(r.out);
   for (const char* k : {"kind", "wrap_angle_deg", "capstan_ratio", "band_length_m",
@@ -135,7 +137,7 @@ TEST(Cli, EveryExampleSolves) {
   for (const auto& entry : fs::directory_iterator(fs::path(BANDFORGE_SOURCE_DIR) / "examples")) {
     if (entry.path().extension() != ".toml") continue;
     ++n;
-    const Run r = run("solve --json " + entry.path().string());
+    const Result r = run("solve --json " + entry.path().string());
     EXPECT_EQ(r.status, 0) << entry.path() << ": " << r.err;
     if (r.status != 0) continue;
     const auto j = nlohmann::json::parse(r.out);
@@ -147,16 +149,16 @@ TEST(Cli, EveryExampleSolves) {
 }
 
 TEST(Cli, StarterDesignSolves) {
-  const Run made = run("new");
+  const Result made = run("new");
   ASSERT_EQ(made.status, 0) << made.err;
   const fs::path p = scratch() / "starter.toml";
   std::ofstream(p, std::ios::binary) << made.out;
-  const Run r = run("solve " + p.string());
+  const Result r = run("solve " + p.string());
   EXPECT_EQ(r.status, 0) << r.err;
 }
 
 TEST(Cli, MaterialsListsSources) {
-  const Run r = run("materials");
+  const Result r = run("materials");
   ASSERT_EQ(r.status, 0) << r.err;
   EXPECT_NE(r.out.find("woven"), std::string::npos);
   EXPECT_NE(r.out.find("cast-iron"), std::string::npos);
@@ -164,7 +166,7 @@ TEST(Cli, MaterialsListsSources) {
 }
 
 TEST(CliExit, UnreadableFileIsStatus4) {
-  const Run r = run("solve /nonexistent/brake.toml");
+  const Result r = run("solve /nonexistent/brake.toml");
   EXPECT_EQ(r.status, 4) << r.err;
   EXPECT_NE(r.err.find("/nonexistent/brake.toml"), std::string::npos);
 }
@@ -236,7 +238,7 @@ TEST(BadInput, WrapAngleNearZero) {
   std::string text = slurp(p);
   text.replace(text.find("at = [\"60 mm\", \"-300 mm\"]"), 25, b);
   std::ofstream(p, std::ios::binary) << text;
-  const Run r = run("solve " + p.string());
+  const Result r = run("solve " + p.string());
   EXPECT_EQ(r.status, 2) << r.err;
   EXPECT_NE(r.err.find("wrap"), std::string::npos) << r.err;
   EXPECT_NE(r.err.find("band."), std::string::npos) << r.err;
@@ -264,7 +266,7 @@ TEST(BadInput, HandleAtThePivot) {
 
 TEST(BadInput, TomlSyntaxError) {
   const auto p = example_with("width = \"80 mm\"", "width = \"80 mm", "syntax");
-  const Run r = run("solve " + p.string());
+  const Result r = run("solve " + p.string());
   EXPECT_EQ(r.status, 2) << r.err;
   EXPECT_NE(r.err.find(p.string() + ":" + std::to_string(line_of(p, "width = \"80 mm"))), std::string::npos) << r.err;
 }
@@ -279,7 +281,7 @@ TEST(BadInput, GarbageNeverCrashes) {
   std::string junk;
   for (int i = 0; i < 4096; ++i) junk.push_back(static_cast<char>((i * 7919) % 256));
   std::ofstream(p, std::ios::binary) << junk;
-  const Run r = run("solve " + p.string());
+  const Result r = run("solve " + p.string());
   EXPECT_EQ(r.status, 2) << r.err;
   const fs::path empty = scratch() / "empty.toml";
   std::ofstream(empty, std::ios::binary) << "";

@@ -387,12 +387,13 @@ TEST(StarterDesign, ReadsBackWithoutError) {
   EXPECT_DOUBLE_EQ(d.load.torque, 120.0);
   EXPECT_NEAR(d.duty.speed, 120 * 2 * std::numbers::pi / 60, 1e-12);
   EXPECT_DOUBLE_EQ(d.duty.ambient, 30.0);
-  // Its own numbers, not the bundled example's.
-  const fs::path example = fs::path(BANDFORGE_SOURCE_DIR) / "examples" / "bin-hoist.toml";
-  if (fs::exists(example)) {
-    const Design e = read_design_file(example.string());
-    EXPECT_NE(d.drum.diameter, e.drum.diameter);
-    EXPECT_NE(d.project.title, e.project.title);
+  // Its own numbers, not a bundled example's.
+  for (const auto& entry : fs::directory_iterator(fs::path(BANDFORGE_SOURCE_DIR) / "examples")) {
+    if (entry.path().extension() != ".toml") continue;
+    const Design e = read_design_file(entry.path().string());
+    EXPECT_NE(d.drum.diameter, e.drum.diameter) << entry.path();
+    EXPECT_NE(d.project.title, e.project.title) << entry.path();
+    EXPECT_NE(d.project.number, e.project.number) << entry.path();
   }
 }
 

@@ -120,7 +120,7 @@ double tangent_angle(double x, double y, double R, int s, bool end_a) {
 }
 
 // The example in millimetres, from the design file (examples/bin-hoist.toml).
-constexpr double D = 400, w = 100, t_lin = 5, t = 3, b = 80, d_pin = 16, c = 1.5;
+constexpr double D = 400, w = 100, t_lin = 5, t = 3, b = 80, d_pin = 16, clr = 1.5;
 constexpr double Ax = -60, Ay = -300, Bx = 60, By = -300, Ox = -110, Oy = -300;
 constexpr double r_b = D / 2 + t_lin + t / 2;  // band centreline radius 206.5 mm
 constexpr int s_cw = -1;                       // [band] sense = "cw"
@@ -296,7 +296,9 @@ TEST(Checks, ExampleSolidsAreValidAndClear) {
     if (c.part_a == "BAND" && c.part_b == "LINING") band_lining = c.intended;
     if (c.part_a == "LEVER" && c.part_b == "PIN-B") lever_pin = c.intended;
     // With a 5 mm lining the band stays 5 mm off the drum (applied state).
-    if (c.part_a == "DRUM" && c.part_b == "BAND") EXPECT_NEAR(c.distance, t_lin, 1e-6);
+    if (c.part_a == "DRUM" && c.part_b == "BAND") {
+      EXPECT_NEAR(c.distance, t_lin, 1e-6);
+    }
   }
   EXPECT_TRUE(band_lining);
   EXPECT_TRUE(lever_pin);
@@ -427,7 +429,7 @@ TEST(Released, BandLiftedByTheClearanceAndLeverTurnedBack) {
   EXPECT_NEAR(centroid(placed(x.model, "PIN-A")).X(), Ax, 1e-6);
   EXPECT_NEAR(centroid(placed(x.model, "PIN-PIVOT")).Y(), Oy, 1e-6);
   // The band re-tangents from the moved pin to r_b + c; its inner face is lifted by c.
-  const double R = r_b + c;
+  const double R = r_b + clr;
   const double beta_a = tangent_angle(Ax, Ay, R, s_cw, true);
   const double beta_b = tangent_angle(bx, by, R, s_cw, false);
   const TopoDS_Shape band = placed(x.model, "BAND"), lining = placed(x.model, "LINING");
@@ -438,10 +440,12 @@ TEST(Released, BandLiftedByTheClearanceAndLeverTurnedBack) {
     EXPECT_LT(distance(band, gp_Pnt((R - t / 2) * std::cos(a), (R - t / 2) * std::sin(a), 0)), 1e-6);
   }
   // Lining off the drum by c everywhere.
-  EXPECT_NEAR(BRepExtrema_DistShapeShape(lining, placed(x.model, "DRUM")).Value(), c, 1e-6);
+  EXPECT_NEAR(BRepExtrema_DistShapeShape(lining, placed(x.model, "DRUM")).Value(), clr, 1e-6);
   for (const ContactCheck& cc : x.model.contacts()) {
     EXPECT_TRUE(cc.ok) << cc.part_a << " / " << cc.part_b;
-    if (cc.part_a == "DRUM" && cc.part_b == "LINING") EXPECT_FALSE(cc.intended);
+    if (cc.part_a == "DRUM" && cc.part_b == "LINING") {
+      EXPECT_FALSE(cc.intended);
+    }
   }
   // The handle moves by about the handle travel solve reports (chord of the arc).
   const gp_Pnt grip = centroid(placed(x.model, "GRIP"));

@@ -1,0 +1,360 @@
+// The STEP export, checked by an independent reader (OCCT's STEPCAFControl_Reader into a fresh
+// XCAF document) and by reading the Part 21 text itself; reproducibility across processes; the
+// build command's exit statuses and its promise of no partial outputs.
+#include <sys/wait.h>
+
+#include <array>
+#include <cstdio>
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <regex>
+#include <set>
+#include <sstream>
+#include <string>
+
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+#include <BRepGProp.hxx>
+#include <GProp_GProps.hxx>
+#include <IFSelect_ReturnStatus.hxx>
+#include <Interface_Static.hxx>
+#include <Quantity_Color.hxx>
+#include <STEPCAFControl_Reader.hxx>
+#include <STEPControl_Reader.hxx>
+#include <TColStd_SequenceOfAsciiString.hxx>
+#include <TDF_LabelSequence.hxx>
+#include <TDataStd_Name.hxx>
+#include <TDocStd_Document.hxx>
+#include <XCAFApp_Application.hxx>
+#include <XCAFDoc_ColorTool.hxx>
+#include <XCAFDoc_DocumentTool.hxx>
+#include <XCAFDoc_ShapeTool.hxx>
+
+#include "geometry/brake_model.hpp"
+#include "geometry/step_canonical.hpp"
+#include "geometry/step_header.hpp"
+#include "src/design_reader.hpp"
+#include "src/errors.hpp"
+#include "src/mechanics.hpp"
+
+namespace bandforge::geom {
+namespace {
+
+namespace fs = std::filesystem;
+
+const std::string kSource = BANDFORGE_SOURCE_DIR;
+const std::string kExample = kSource + "/examples/bin-hoist.toml";
+
+fs::path fresh_dir(const std::string& name) {
+  const fs::path p = fs::temp_directory_path() / ("bandforge-step-test-" + std::to_string(::getpid())) / name;
+  fs::remove_all(p);
+  fs::create_directories(p);
+  return p;
+}
+
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  std::stringstream ss;
+  ss << in.rdbuf();
+  return ss.str();
+}
+
+std::string name_of(const TDF_Label& l) {
+  Handle(TDataStd_Name) n;
+  if (!l.FindAttribute(TDataStd_Name::GetID(), n)) return "";
+  return TCollection_AsciiString(n->Get()).ToCString();
+}
+
+double volume(const TopoDS_Shape& s) {
+  GProp_GProps g;
+  BRepGProp::VolumeProperties(s, g);
+  return g.Mass();
+}
+
+// Runs a shell command; returns (exit status, stdout).
+std::pair<int, std::string> run(const std::string& cmd) {
+  std::string out;
+  FILE* p = ::popen(cmd.c_str(), "r");
+  if (p == nullptr) return {-1, ""};
+  std::array<char, 4096> buf;
+  std::size_t n;
+  while ((n = std::fread(buf.data(), 1, buf.size(), p)) > 0) out.append(buf.data(), n);
+  const int status = ::pclose(p);
+  return {WIFEXITED(status) ? WEXITSTATUS(status) : -1, out};
+}
+
+struct Written {
+  Design design;
+  BrakeModel model;
+  fs::path file;
+};
+
+Written write_example(const std::string& dir) {
+  Design d = read_design_file(kExample);
+  BrakeModel m = build_brake(d, solve(d), {});
+  const fs::path file = fresh_dir(dir) / "KFW-2207-BR.step";
+  write_step(m, d, file.string());
+  return {std::move(d), std::move(m), file};
+}
+
+TEST(StepExport, RereadGivesNamesInstancesColoursUnitsAndVolumes) {
+  const Written w = write_example("reread");
+  Handle(TDocStd_Document) doc;
+  XCAFApp_Application::GetApplication()->NewDocument("MDTV-XCAF", doc);
+  STEPCAFControl_Reader reader;
+  reader.SetColorMode(Standard_True);
+  reader.SetNameMode(Standard_True);
+  ASSERT_EQ(reader.ReadFile(w.file.string().c_str()), IFSelect_RetDone);
+  ASSERT_TRUE(reader.Transfer(doc));
+
+  // Units as declared in the file: millimetre.
+  TColStd_SequenceOfAsciiString lengths, angles, solid_angles;
+  reader.ChangeReader().FileUnits(lengths, angles, solid_angles);
+  ASSERT_GE(lengths.Length(), 1);
+  for (int i = 1; i <= lengths.Length(); ++i) {
+    EXPECT_STREQ(lengths(i).ToCString(), "MILLIMETRE");
+  }
+
+  Handle(XCAFDoc_ShapeTool) shapes = XCAFDoc_DocumentTool::ShapeTool(doc->Main());
+  Handle(XCAFDoc_ColorTool) colours = XCAFDoc_DocumentTool::ColorTool(doc->Main());
+  TDF_LabelSequence roots;
+  shapes->GetFreeShapes(roots);
+  ASSERT_EQ(roots.Length(), 1);
+  EXPECT_EQ(name_of(roots(1)), "KFW-2207-BR Bin hoist holding brake");
+  ASSERT_TRUE(shapes->IsAssembly(roots(1)));
+
+  TDF_LabelSequence comps;
+  shapes->GetComponents(roots(1), comps);
+  std::size_t instances = 0;
+  std::map<std::string, const PartInfo*> built;
+  for (const PartInfo& p : w.model.parts()) {
+    built[p.name] = &p;
+    instances += p.instance_names.size();
+  }
+  EXPECT_EQ(static_cast<std::size_t>(comps.Length()), instances);
+
+  std::set<std::string> products_seen, instances_seen;
+  std::set<int> referred;
+  for (int i = 1; i <= comps.Length(); ++i) {
+    TDF_Label part;
+    ASSERT_TRUE(shapes->GetReferredShape(comps(i), part));
+    const std::string pname = name_of(part), iname = name_of(comps(i));
+    SCOPED_TRACE(iname);
+    ASSERT_TRUE(built.count(pname)) << "unknown product " << pname;
+    const PartInfo& info = *built[pname];
+    products_seen.insert(pname);
+    instances_seen.insert(iname);
+    referred.insert(part.Tag());
+    // The instance belongs to its part and sits where it was built.
+    const auto at = std::find(info.instance_names.begin(), info.instance_names.end(), iname);
+    ASSERT_NE(at, info.instance_names.end());
+    const Vec3 o = info.instance_origins[static_cast<std::size_t>(at - info.instance_names.begin())];
+    const gp_XYZ t = shapes->GetLocation(comps(i)).Transformation().TranslationPart();
+    EXPECT_NEAR(t.X(), o.x, 1e-9);
+    EXPECT_NEAR(t.Y(), o.y, 1e-9);
+    EXPECT_NEAR(t.Z(), o.z, 1e-9);
+    // Volume of the re-read solid, mm³.
+    EXPECT_NEAR(volume(shapes->GetShape(part)), info.volume, 1e-6 * info.volume);
+    // Colour: OCCT reads it back as 32-bit floats, so compare to float precision here; the
+    // exact decimals are checked in the file text below.
+    Quantity_Color c;
+    ASSERT_TRUE(colours->GetColor(part, XCAFDoc_ColorSurf, c) ||
+                colours->GetColor(shapes->GetShape(part), XCAFDoc_ColorSurf, c));
+    double r, g, b;
+    c.Values(r, g, b, Quantity_TOC_sRGB);
+    EXPECT_NEAR(r, info.colour.r, 1e-6);
+    EXPECT_NEAR(g, info.colour.g, 1e-6);
+    EXPECT_NEAR(b, info.colour.b, 1e-6);
+  }
+  // One product per distinct part: the two band-end pins share one.
+  EXPECT_EQ(products_seen.size(), w.model.parts().size());
+  EXPECT_EQ(referred.size(), w.model.parts().size());
+  EXPECT_EQ(instances_seen,
+            (std::set<std::string>{"DRUM", "BAND", "LINING", "LEVER", "GRIP", "ANCHOR-A",
+                                   "ANCHOR-PIVOT", "PIN-A", "PIN-B", "PIN-PIVOT"}));
+}
+
+TEST(StepExport, FileTextCarriesHeaderSchemaUnitsAndExactColours) {
+  const Written w = write_example("text");
+  const std::string text = slurp(w.file);
+  EXPECT_EQ(text.rfind("ISO-10303-21;", 0), 0u);
+  EXPECT_NE(text.find("END-ISO-10303-21;"), std::string::npos);
+  // REFERENCE §6.1: AP214 IS schema identifier.
+  EXPECT_NE(text.find("FILE_SCHEMA(('AUTOMOTIVE_DESIGN { 1 0 10303 214 1 1 1 1 }'));"), std::string::npos);
+  // Header from [project] (examples/bin-hoist.toml); the time is the design's date, not now.
+  EXPECT_NE(text.find("FILE_DESCRIPTION(('Bin hoist holding brake, revision A'),'2;1');"), std::string::npos);
+  const std::regex file_name(
+      R"(FILE_NAME\('KFW-2207-BR\.step','2026-11-30T00:00:00',\('R\. Antonelli'\),\(\s*'Kestrel Fold Machine Works'\),\s*'bandforge [0-9.]+','bandforge [0-9.]+',\s*'M\. Okafor'\);)");
+  EXPECT_TRUE(std::regex_search(text, file_name)) << text.substr(0, 600);
+  // REFERENCE §6.2: millimetres declared as an SI unit with prefix MILLI.
+  EXPECT_NE(text.find("( LENGTH_UNIT() NAMED_UNIT(*) SI_UNIT(.MILLI.,.METRE.) )"), std::string::npos);
+  // Each part's colour, written with exactly the decimals chosen.
+  for (const PartInfo& p : w.model.parts()) {
+    const std::string want = "COLOUR_RGB(''," + part21_real(p.colour.r) + "," +
+                             part21_real(p.colour.g) + "," + part21_real(p.colour.b) + ");";
+    EXPECT_NE(text.find(want), std::string::npos) << p.name << ": " << want;
+  }
+  // Readable product names, id and name alike (REFERENCE §6.2).
+  for (const char* n : {"DRUM", "BAND", "LINING", "LEVER", "ANCHOR", "PIN-D16x100", "PIN-D16x116"}) {
+    EXPECT_NE(text.find(std::string("PRODUCT('") + n + "','" + n + "'"), std::string::npos) << n;
+  }
+}
+
+TEST(StepExport, WritingLeavesStdoutAndOcctSettingsAlone) {
+  Design d = read_design_file(kExample);
+  BrakeModel m = build_brake(d, solve(d), {});
+  const std::string schema = Interface_Static::CVal("write.step.schema");
+  const fs::path file = fresh_dir("quiet") / "q.step";
+  testing::internal::CaptureStdout();
+  write_step(m, d, file.string());
+  const std::string printed = testing::internal::GetCapturedStdout();
+  EXPECT_EQ(printed, "");
+  EXPECT_EQ(schema, Interface_Static::CVal("write.step.schema"));
+  EXPECT_TRUE(fs::exists(file));
+  EXPECT_FALSE(fs::exists(file.string() + ".partial"));
+}
+
+TEST(StepExport, SameInputSameBytesInTwoProcesses) {
+  const fs::path one = fresh_dir("run1"), two = fresh_dir("run2");
+  const std::string exe = BANDFORGE_EXE;
+  for (const fs::path& dir : {one, two}) {
+    const auto [status, out] = run("'" + exe + "' build '" + kExample + "' -o '" + dir.string() + "'");
+    ASSERT_EQ(status, 0) << out;
+  }
+  const std::string a = slurp(one / "KFW-2207-BR.step"), b = slurp(two / "KFW-2207-BR.step");
+  ASSERT_GT(a.size(), 10000u);
+  EXPECT_TRUE(a == b) << "the two STEP files differ";
+  // The environment's SOURCE_DATE_EPOCH does not override the design's own date.
+  const fs::path three = fresh_dir("run3");
+  ASSERT_EQ(run("SOURCE_DATE_EPOCH=86400 '" + exe + "' build '" + kExample + "' -o '" +
+                three.string() + "'").first, 0);
+  EXPECT_TRUE(slurp(three / "KFW-2207-BR.step") == a);
+}
+
+TEST(BuildCommand, JsonIsTheOnlyThingOnStdout) {
+  const fs::path dir = fresh_dir("json");
+  const auto [status, out] =
+      run("'" + std::string(BANDFORGE_EXE) + "' build '" + kExample + "' -o '" + dir.string() + "' --json");
+  ASSERT_EQ(status, 0);
+  const nlohmann::json j = nlohmann::json::parse(out);  // throws if OCCT printed anything
+  EXPECT_EQ(j["state"], "applied");
+  EXPECT_TRUE(j["valid"].get<bool>());
+  EXPECT_TRUE(j["ok"].get<bool>());
+  EXPECT_EQ(j["files"].size(), 1u);
+  EXPECT_EQ(j["parts"].size(), 8u);  // drum, band, lining, lever, grip, anchor, two pin lengths
+  EXPECT_GE(j["contacts"].size(), 5u);
+}
+
+TEST(BuildCommand, UnbuildableDesignExitsThreeAndLeavesNoFiles) {
+  std::string text = slurp(kExample);
+  const std::string from = "handle = [\"700 mm\", \"-300 mm\"]";
+  ASSERT_NE(text.find(from), std::string::npos);
+  text.replace(text.find(from), from.size(), "handle = [\"-100 mm\", \"-300 mm\"]");
+  const fs::path dir = fresh_dir("bad");
+  const fs::path design = dir / "short-lever.toml";
+  std::ofstream(design) << text;
+  const fs::path out = dir / "out";
+  const auto [status, printed] = run("'" + std::string(BANDFORGE_EXE) + "' build '" +
+                                     design.string() + "' -o '" + out.string() + "' 2>&1");
+  EXPECT_EQ(status, 3) << printed;
+  EXPECT_NE(printed.find("cannot build the lever"), std::string::npos) << printed;
+  EXPECT_TRUE(!fs::exists(out) || fs::is_empty(out));
+}
+
+TEST(BuildCommand, InterferenceExitsThreeNamingBothPartsAndLeavesNoFiles) {
+  std::string text = slurp(kExample);
+  for (auto [from, to] : {std::pair<std::string, std::string>{"pivot = [\"-110 mm\", \"-300 mm\"]",
+                                                                "pivot = [\"-300 mm\", \"-100 mm\"]"},
+                          {"handle = [\"700 mm\", \"-300 mm\"]", "handle = [\"700 mm\", \"-100 mm\"]"}}) {
+    ASSERT_NE(text.find(from), std::string::npos);
+    text.replace(text.find(from), from.size(), to);
+  }
+  const fs::path dir = fresh_dir("clash");
+  std::ofstream(dir / "clash.toml") << text;
+  const fs::path out = dir / "out";
+  fs::create_directories(out);
+  const auto [status, printed] = run("'" + std::string(BANDFORGE_EXE) + "' build '" +
+                                     (dir / "clash.toml").string() + "' -o '" + out.string() + "' 2>&1");
+  EXPECT_EQ(status, 3) << printed;
+  EXPECT_NE(printed.find("DRUM and LEVER"), std::string::npos) << printed;
+  EXPECT_TRUE(fs::is_empty(out));
+}
+
+TEST(BuildCommand, ConceptDesignExitsTwo) {
+  const fs::path out = fresh_dir("concept");
+  const auto [status, printed] =
+      run("'" + std::string(BANDFORGE_EXE) + "' build '" + kSource +
+          "/examples/concept-differential.toml' -o '" + out.string() + "' 2>&1");
+  EXPECT_EQ(status, 2) << printed;
+  EXPECT_NE(printed.find("a [concept] design has no pin coordinates; build needs "
+                         "end_a/end_b/pivot/handle"),
+            std::string::npos)
+      << printed;
+  EXPECT_TRUE(fs::is_empty(out));
+}
+
+// The canonical renumbering on hand-written Part 21 text.
+const char* kHead = "ISO-10303-21;\nHEADER;\nFILE_SCHEMA(('X'));\nENDSEC;\nDATA;\n";
+const char* kTail = "ENDSEC;\nEND-ISO-10303-21;\n";
+
+TEST(StepCanonical, NumberingDependsOnContentNotOnTheWritersIds) {
+  // The same graph twice: a root with a style on a point, ids and order shuffled, one line
+  // broken differently.
+  const std::string a = std::string(kHead) +
+                        "#1 = ROOT('r',(#2,#3));\n#2 = CARTESIAN_POINT('',(0.,0.,1.));\n"
+                        "#3 = STYLED_ITEM('color',(#4),#2);\n#4 = COLOUR_RGB('',0.5,0.5,0.5);\n" + kTail;
+  const std::string b = std::string(kHead) +
+                        "#40 = COLOUR_RGB('',0.5,0.5,0.5);\n#7 = STYLED_ITEM('color',(#40),\n    #12);\n"
+                        "#12 = CARTESIAN_POINT('',(0.,0.,1.));\n#9 = ROOT('r',(#12,#7));\n" + kTail;
+  const std::string ca = canonical_step(a), cb = canonical_step(b);
+  EXPECT_EQ(ca, cb);
+  EXPECT_NE(ca.find("#1 = ROOT('r',(#2,#3));"), std::string::npos) << ca;
+  EXPECT_NE(ca.find("#3 = STYLED_ITEM('color',(#4),#2);"), std::string::npos) << ca;
+  // Idempotent.
+  EXPECT_EQ(canonical_step(ca), ca);
+}
+
+TEST(StepCanonical, StringsKeepTheirHashesAndSemicolons) {
+  const std::string a = std::string(kHead) + "#5 = PRODUCT('A#1; ''x''','n',$,(#6));\n#6 = C('');\n" + kTail;
+  const std::string c = canonical_step(a);
+  EXPECT_NE(c.find("#1 = PRODUCT('A#1; ''x''','n',$,(#2));"), std::string::npos) << c;
+}
+
+TEST(StepCanonical, RejectsWhatItCannotRead) {
+  EXPECT_THROW(canonical_step("not a step file"), BuildError);
+  EXPECT_THROW(canonical_step(std::string(kHead) + "#1 = A(#2);\n" + kTail), BuildError);
+  EXPECT_THROW(canonical_step(std::string(kHead) + "#1 = A('x;\n"), BuildError);
+}
+
+TEST(StepCanonical, ColoursSnapToTheChosenDecimals) {
+  const std::string t = "#1 = COLOUR_RGB('',0.750000000934,0.750000000934,0.750000000934);\n"
+                        "#2 = COLOUR_RGB('',0.33,0.2,0.1);\n";
+  const std::string c = exact_colours(t, {{0.75, 0.75, 0.75}});
+  EXPECT_NE(c.find("#1 = COLOUR_RGB('',0.75,0.75,0.75);"), std::string::npos) << c;
+  EXPECT_NE(c.find("#2 = COLOUR_RGB('',0.33,0.2,0.1);"), std::string::npos) << c;
+  EXPECT_EQ(part21_real(1.0), "1.");
+  EXPECT_EQ(part21_real(0.0), "0.");
+  EXPECT_EQ(part21_real(0.45), "0.45");
+  EXPECT_EQ(part21_real(1.5e-7), "1.5E-07");
+}
+
+TEST(StepHeader, TimeStampNeverComesFromTheClock) {
+  EXPECT_EQ(step_time_stamp("2026-11-30", "86400"), "2026-11-30T00:00:00");
+  // 86400 s after the epoch is 1970-01-02 (UTC).
+  EXPECT_EQ(step_time_stamp("", "86400"), "1970-01-02T00:00:00");
+  EXPECT_EQ(step_time_stamp("30 Nov 2026", nullptr), "1970-01-01T00:00:00");
+  EXPECT_EQ(step_time_stamp("", "soon"), "1970-01-01T00:00:00");
+}
+
+TEST(StepHeader, NonAsciiTextIsEncodedForPart21) {
+  // ISO 10303-21 §6.4.3.3: \X2\ followed by UTF-16 code units in hex, ended by \X0\.
+  EXPECT_EQ(part21_text("Ø400 drum"), "\\X2\\00D8\\X0\\400 drum");
+  EXPECT_EQ(part21_text("a\\b"), "a\\\\b");
+  EXPECT_EQ(part21_text("plain"), "plain");
+}
+
+}  // namespace
+}  // namespace bandforge::geom
