@@ -121,7 +121,12 @@ bool place_linear(Canvas& c, Occupancy& occ, const LinearDim& d, const DimStyle&
     const bool text_inside = len >= tw + 2 * st.arrow + 2.0;
     std::vector<Pt> starts;
     if (text_inside) {
-      starts.push_back((d1 + d2) * 0.5 - t * (tw / 2) + up * st.gap);
+      // Middle first, then off-centre along the line when something sits over the middle.
+      for (double frac : {0.5, 0.35, 0.65, 0.2, 0.8}) {
+        const double a = frac * len - tw / 2;
+        if (a < st.arrow + 0.5 || a + tw > len - st.arrow - 0.5) continue;
+        starts.push_back(d1 + t * a + up * st.gap);
+      }
     } else {
       starts.push_back(d2 + t * (st.arrow + 1.5) + up * st.gap);
       starts.push_back(d1 - t * (st.arrow + 1.5 + tw) + up * st.gap);

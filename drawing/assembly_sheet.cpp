@@ -248,27 +248,51 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
   const auto blocked = obstacles(plan.zones);
   for (const Scale& sc : tried) {
     const double k = sc.factor();
-    // Boxes of the two views with their annotation margins, relative to the front origin; the
-    // side view shares the drum axis height (projection lines are horizontal).
-    const Box fr{F.min.x * k - fm.left, F.min.y * k - fm.bottom, F.max.x * k + fm.right, F.max.y * k + fm.top};
-    const double dx = fr.x1 + gap + sm.left - S.min.x * k;
+    // The group's footprint relative to the front origin: each view's geometry with a small
+    // margin, the strips that carry the coordinate dimensions (only as wide as the features
+    // they measure), and the side view, which shares the drum axis height.
+    std::vector<Box> foot;
+    const Box fg{F.min.x * k - 6, F.min.y * k - 6, F.max.x * k + 6, F.max.y * k + 14};
+    foot.push_back(fg);
+    {
+      double lo = 0, hi = 0, vlo = 0, vhi = 0;
+      for (Pt p : {f.pivot, f.a, f.b}) {
+        lo = std::min(lo, p.x * k);
+        hi = std::max(hi, p.x * k);
+        vlo = std::min(vlo, p.y * k);
+        vhi = std::max(vhi, p.y * k);
+      }
+      if (dims_below(f)) foot.push_back({lo - 16, F.min.y * k - fm.bottom, hi + 16, F.min.y * k});
+      else foot.push_back({lo - 16, F.max.y * k, hi + 16, F.max.y * k + fm.top});
+      if (dims_left(f)) foot.push_back({F.min.x * k - fm.left, vlo - 4, F.min.x * k, vhi + 4});
+      else foot.push_back({F.max.x * k, vlo - 4, F.max.x * k + fm.right, vhi + 4});
+    }
+    const double dx = fg.x1 + gap + sm.left - S.min.x * k;
     const Box sr{dx + S.min.x * k - sm.left, S.min.y * k - sm.bottom, dx + S.max.x * k + sm.right,
                  S.max.y * k + sm.top};
-    const double gw = sr.x1 - fr.x0, gh = std::max(fr.y1, sr.y1) - std::min(fr.y0, sr.y0);
-    if (gw > area.width() || gh > area.height()) continue;
+    foot.push_back(sr);
+    Box all = foot[0];
+    for (const Box& b : foot) {
+      all.x0 = std::min(all.x0, b.x0);
+      all.y0 = std::min(all.y0, b.y0);
+      all.x1 = std::max(all.x1, b.x1);
+      all.y1 = std::max(all.y1, b.y1);
+    }
+    if (all.width() > area.width() || all.height() > area.height()) continue;
     // Scan origins on a 2 mm grid for the free spot nearest the top centre of the sheet.
-    const Pt target{(area.x0 + area.x1) / 2, area.y1 - gh / 2};
+    const Pt target{(area.x0 + area.x1) / 2, area.y1 - all.height() / 2};
     bool found = false;
     Pt best;
     double best_score = 1e18;
-    for (double ox = area.x0 - fr.x0; ox + sr.x1 <= area.x1; ox += 2) {
-      for (double oy = area.y1 - std::max(fr.y1, sr.y1); oy + std::min(fr.y0, sr.y0) >= area.y0; oy -= 2) {
-        const Box a{fr.x0 + ox, fr.y0 + oy, fr.x1 + ox, fr.y1 + oy};
-        const Box b{sr.x0 + ox, sr.y0 + oy, sr.x1 + ox, sr.y1 + oy};
+    for (double ox = area.x0 - all.x0; ox + all.x1 <= area.x1; ox += 2) {
+      for (double oy = area.y1 - all.y1; oy + all.y0 >= area.y0; oy -= 2) {
         bool ok = true;
-        for (const Box& o : blocked) ok = ok && !a.overlaps(o) && !b.overlaps(o);
+        for (const Box& b : foot) {
+          const Box m{b.x0 + ox, b.y0 + oy, b.x1 + ox, b.y1 + oy};
+          for (const Box& o : blocked) ok = ok && !m.overlaps(o);
+        }
         if (!ok) continue;
-        const Pt centre{(fr.x0 + sr.x1) / 2 + ox, (std::min(fr.y0, sr.y0) + std::max(fr.y1, sr.y1)) / 2 + oy};
+        const Pt centre{(all.x0 + all.x1) / 2 + ox, (all.y0 + all.y1) / 2 + oy};
         const double score = std::hypot(centre.x - target.x, centre.y - target.y);
         if (score < best_score) {
           best_score = score;
@@ -729,7 +753,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
     const double tip = cw ? mid - half : mid + half;
     arrowhead(c, polar(C, rho, tip), cw ? Pt{std::sin(tip), -std::cos(tip)} : Pt{-std::sin(tip), std::cos(tip)}, 3.5);
     const std::string text = std::string("drum rotation ") + turn_word(d.drum.rotation) + " (design)";
-    std::vector<Pt> cands = around(polar(C, rho, mid), 5, 30);
+    std::vector<Pt> cands = around(polar(C, rho, mid), 5, 70);
     if (!place_label(c, occ, polar(C, rho, mid), cands, text, Lettering::body, true)) {
       notes.push_back("the drum rotation the brake is designed for is " + std::string(turn_word(d.drum.rotation)));
     }
@@ -759,7 +783,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
     for (size_t i = 0; i < parts.size(); ++i) {
       Pt target;
       const std::string& kd = kinds[i];
-      if (kd == "drum") target = polar({0, 0}, r - rim / 2, mid_wrap + kPi);
+      if (kd == "drum") target = polar({0, 0}, r - rim / 2, mid_wrap - kPi / 2);
       else if (kd == "lining") target = polar({0, 0}, r + t_l / 2, mid_wrap + 0.35);
       else if (kd == "band") target = polar({0, 0}, r + t_l + t / 2, mid_wrap - 0.35);
       else if (kd == "lever") target = f.pivot + (f.handle - f.pivot) * 0.6;

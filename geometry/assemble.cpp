@@ -124,9 +124,11 @@ void check_buildable(const Design& d, const Layout& state, const Dims& m,
                      const std::vector<Station>& st) {
   const DrumProportions p = drum_proportions(d.drum);
   const double bore = d.drum.bore * mm_per_m, hub = p.hub_diameter * mm_per_m;
-  if (!(hub > bore + 2 * m.min_wall)) {
+  // Hub wall at least a tenth of the bore and 3 mm (common practice, no source).
+  const double hub_wall = std::max(3.0, 0.1 * bore);
+  if (!(hub > bore + 2 * hub_wall)) {
     cannot("drum", "drum.bore = " + num(bore) + " mm leaves no hub inside the rim (the hub is Ø" +
-                       num(hub) + " mm; the bore must be below " + num(hub - 2 * m.min_wall) +
+                       num(hub) + " mm; the bore must be below " + num(hub - 2 * hub_wall) +
                        " mm)");
   }
   for (const EndLayout* e : {&state.a, &state.b}) {

@@ -461,13 +461,13 @@ std::string format_number(double v, int digits) {
 
 std::string display_unit(Quantity q, UnitSystem system) { return display(q, system).unit; }
 
-double to_display(double si_value, Quantity q, UnitSystem system) {
+double to_display(double value, Quantity q, UnitSystem system) {
   const Display d = display(q, system);
-  return si_value * d.factor + d.offset;
+  return value * d.factor + d.offset;
 }
 
-std::string format_quantity(double si_value, Quantity q, UnitSystem system, int digits) {
-  const std::string number = format_number(to_display(si_value, q, system), digits);
+std::string format_quantity(double value, Quantity q, UnitSystem system, int digits) {
+  const std::string number = format_number(to_display(value, q, system), digits);
   return with_unit(number, display_unit(q, system));
 }
 

@@ -39,10 +39,10 @@ double parse_quantity(std::string_view text, Quantity q);
 std::string display_unit(Quantity q, UnitSystem system);
 
 /// SI value → value in display_unit(q, system).
-double to_display(double si_value, Quantity q, UnitSystem system);
+double to_display(double value, Quantity q, UnitSystem system);
 
 /// "400 mm", "15.7 in": value in the display unit with `digits` significant figures.
-std::string format_quantity(double si_value, Quantity q, UnitSystem system, int digits = 4);
+std::string format_quantity(double value, Quantity q, UnitSystem system, int digits = 4);
 
 /// Human name of a quantity ("a length", "a force") and examples of valid input ("\"400 mm\"").
 std::string quantity_name(Quantity q);
