@@ -17,23 +17,48 @@ Pt unit(Pt a) {
 }
 Pt perp(Pt a) { return {-a.y, a.x}; }
 
-// Liang–Barsky: does segment a–b pass through the box?
-bool segment_hits_box(Pt a, Pt b, const Box& r) {
-  double t0 = 0, t1 = 1;
-  const double dx = b.x - a.x, dy = b.y - a.y;
-  const double p[4] = {-dx, dx, -dy, dy};
-  const double q[4] = {a.x - r.x0, r.x1 - a.x, a.y - r.y0, r.y1 - a.y};
-  for (int i = 0; i < 4; ++i) {
-    if (p[i] == 0) {
-      if (q[i] < 0) return false;
-    } else {
-      const double t = q[i] / p[i];
-      if (p[i] < 0) t0 = std::max(t0, t);
-      else t1 = std::min(t1, t);
-      if (t0 > t1) return false;
+double cross(Pt a, Pt b) { return a.x * b.y - a.y * b.x; }
+
+// Separating-axis test for two convex polygons given as point lists (a segment is a 2-gon).
+bool separated(const Pt* a, int na, const Pt* b, int nb) {
+  auto test = [](const Pt* p, int np, const Pt* q, int nq) {
+    for (int i = 0; i < np; ++i) {
+      const Pt e = p[(i + 1) % np] - p[i];
+      const Pt n{-e.y, e.x};
+      if (n.x == 0 && n.y == 0) continue;
+      double amin = 1e300, amax = -1e300, bmin = 1e300, bmax = -1e300;
+      for (int k = 0; k < np; ++k) {
+        const double v = dot(p[k], n);
+        amin = std::min(amin, v);
+        amax = std::max(amax, v);
+      }
+      for (int k = 0; k < nq; ++k) {
+        const double v = dot(q[k], n);
+        bmin = std::min(bmin, v);
+        bmax = std::max(bmax, v);
+      }
+      if (amax < bmin || bmax < amin) return true;
     }
+    return false;
+  };
+  return test(a, na, b, nb) || test(b, nb, a, na);
+}
+
+bool segment_hits_quad(Pt a, Pt b, const Quad& q) {
+  const Pt s[2] = {a, b};
+  return !separated(s, 2, q.p, 4);
+}
+
+// Shrinks a quad toward its centre by d (so that touching edges do not count as overlap).
+Quad shrunk(const Quad& q, double d) {
+  const Pt c = (q.p[0] + q.p[1] + q.p[2] + q.p[3]) * 0.25;
+  Quad r = q;
+  for (Pt& p : r.p) {
+    const Pt v = p - c;
+    const double n = norm(v);
+    if (n > d) p = c + v * ((n - d) / n);
   }
-  return true;
+  return r;
 }
 
 void dot_mark(Canvas& c, Pt p) { c.fill_circle(p, 0.6); }
@@ -55,33 +80,38 @@ void Occupancy::add_arc(Pt c, double r, double a0, double a1) {
   }
 }
 
-bool Occupancy::free(const Box& b) const {
-  if (!limits_.contains(b)) return false;
-  for (const Box& o : boxes_) {
-    if (b.overlaps(o)) return false;
+bool Occupancy::free(const Quad& q) const {
+  for (const Pt& p : q.p) {
+    if (p.x < limits_.x0 || p.x > limits_.x1 || p.y < limits_.y0 || p.y > limits_.y1) return false;
+  }
+  for (const Quad& o : quads_) {
+    if (!separated(q.p, 4, o.p, 4)) return false;
   }
   for (const Seg& s : segs_) {
-    if (segment_hits_box(s.a, s.b, b)) return false;
+    if (segment_hits_quad(s.a, s.b, q)) return false;
   }
   return true;
 }
 
 bool Occupancy::segment_clear(Pt a, Pt b) const {
-  for (const Box& o : boxes_) {
-    if (segment_hits_box(a, b, o.grown(-0.2))) return false;
+  for (const Quad& o : quads_) {
+    if (segment_hits_quad(a, b, shrunk(o, 0.2))) return false;
   }
   return true;
 }
 
-Box text_box(const Canvas& c, Pt at, const std::string& s, double h, double angle) {
+Quad text_quad(const Canvas& c, Pt at, const std::string& s, double h, double angle) {
   const double w = c.text_width(s, h);
   const Pt t{std::cos(angle), std::sin(angle)}, up = perp(t);
   const double pad = 0.6;
-  const Pt corners[4] = {at + t * (-pad) + up * (-kDescent * h - pad * 0.5),
-                         at + t * (w + pad) + up * (-kDescent * h - pad * 0.5),
-                         at + t * (-pad) + up * (h + pad), at + t * (w + pad) + up * (h + pad)};
+  return {{at + t * (-pad) + up * (-kDescent * h - pad * 0.5), at + t * (w + pad) + up * (-kDescent * h - pad * 0.5),
+           at + t * (w + pad) + up * (h + pad), at + t * (-pad) + up * (h + pad)}};
+}
+
+Box text_box(const Canvas& c, Pt at, const std::string& s, double h, double angle) {
+  const Quad q = text_quad(c, at, s, h, angle);
   Box b{1e18, 1e18, -1e18, -1e18};
-  for (Pt p : corners) {
+  for (Pt p : q.p) {
     b.x0 = std::min(b.x0, p.x);
     b.y0 = std::min(b.y0, p.y);
     b.x1 = std::max(b.x1, p.x);
@@ -122,17 +152,23 @@ bool place_linear(Canvas& c, Occupancy& occ, const LinearDim& d, const DimStyle&
     std::vector<Pt> starts;
     if (text_inside) {
       // Middle first, then off-centre along the line when something sits over the middle.
-      for (double frac : {0.5, 0.35, 0.65, 0.2, 0.8}) {
-        const double a = frac * len - tw / 2;
+      for (int i = 0; i < 40; ++i) {
+        const double shift = (i % 2 ? 1 : -1) * 1.5 * ((i + 1) / 2);  // 0, +1.5, −1.5, +3, ...
+        const double a = len / 2 - tw / 2 + shift;
         if (a < st.arrow + 0.5 || a + tw > len - st.arrow - 0.5) continue;
         starts.push_back(d1 + t * a + up * st.gap);
       }
     } else {
-      starts.push_back(d2 + t * (st.arrow + 1.5) + up * st.gap);
-      starts.push_back(d1 - t * (st.arrow + 1.5 + tw) + up * st.gap);
+      // Beside an outer arrowhead, further out, or centred above a short line (ISO 129-1 lets
+      // the value sit outside when the space between the extension lines is too small).
+      for (double more : {0.0, 6.0, 12.0}) {
+        starts.push_back(d2 + t * (st.arrow + 1.5 + more) + up * st.gap);
+        starts.push_back(d1 - t * (st.arrow + 1.5 + tw + more) + up * st.gap);
+      }
+      starts.push_back((d1 + d2) * 0.5 - t * (tw / 2) + up * st.gap);
     }
     for (Pt s : starts) {
-      const Box tb = text_box(c, s, d.text, st.h, ang);
+      const Quad tb = text_quad(c, s, d.text, st.h, ang);
       if (!occ.free(tb)) continue;
       // Dimension line from end to end, extended to the text when the text sits outside.
       Pt l1 = d1, l2 = d2;
@@ -174,7 +210,7 @@ bool place_linear(Canvas& c, Occupancy& occ, const LinearDim& d, const DimStyle&
         arrowhead(c, d2, d1 - d2, st.arrow);
       }
       c.text(s, d.text, st.h, Align::left, ang);
-      occ.add_box(tb);
+      occ.add_quad(tb);
       occ.add_segment(l1, l2);
       if (has1) occ.add_segment(e1a, e1b);
       if (has2) occ.add_segment(e2a, e2b);

@@ -10,27 +10,35 @@
 
 namespace bandforge::drawing {
 
-/// What is already on the sheet: text and table boxes, and line segments (view edges,
+/// A convex quadrilateral (a text's rectangle, possibly rotated), corners in order.
+struct Quad {
+  Pt p[4];
+  static Quad of(const Box& b) { return {{{b.x0, b.y0}, {b.x1, b.y0}, {b.x1, b.y1}, {b.x0, b.y1}}}; }
+};
+
+/// What is already on the sheet: text and table areas, and line segments (view edges,
 /// dimension lines).
 class Occupancy {
  public:
-  void add_box(const Box& b) { boxes_.push_back(b); }
+  void add_box(const Box& b) { quads_.push_back(Quad::of(b)); }
+  void add_quad(const Quad& q) { quads_.push_back(q); }
   void add_segment(Pt a, Pt b) { segs_.push_back({a, b}); }
   void add_polyline(const std::vector<Pt>& pts);
   void add_arc(Pt c, double r, double a0, double a1);
-  /// Annotations must stay inside this box (the drawing space less the tables).
+  /// Annotations must stay inside this box (the drawing space).
   void set_limits(const Box& b) { limits_ = b; }
 
-  /// True when `b` lies inside the limits and touches no box and no segment.
-  bool free(const Box& b) const;
-  /// True when the segment crosses no recorded box (a leader or dimension line through text).
+  /// True when the area lies inside the limits and touches no recorded area and no segment.
+  bool free(const Quad& q) const;
+  bool free(const Box& b) const { return free(Quad::of(b)); }
+  /// True when the segment crosses no recorded area (a leader or dimension line through text).
   bool segment_clear(Pt a, Pt b) const;
 
  private:
   struct Seg {
     Pt a, b;
   };
-  std::vector<Box> boxes_;
+  std::vector<Quad> quads_;
   std::vector<Seg> segs_;
   Box limits_{-1e9, -1e9, 1e9, 1e9};
 };
@@ -44,7 +52,9 @@ struct DimStyle {
   double overshoot = 2.0;
 };
 
-/// Box around text of height h whose baseline starts at `at` and runs along `angle`.
+/// The area of text of height h whose baseline starts at `at` and runs along `angle`.
+Quad text_quad(const Canvas& c, Pt at, const std::string& s, double h, double angle);
+/// Its axis-aligned bounding box.
 Box text_box(const Canvas& c, Pt at, const std::string& s, double h, double angle);
 
 /// A filled arrowhead with its tip at `tip`, pointing along the unit vector `dir`.

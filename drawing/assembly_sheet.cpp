@@ -84,34 +84,39 @@ Table results_table(const Design& d, const Solution& s, UnitSystem u) {
   return t;
 }
 
-Table parts_table(const geom::BrakeModel& model) {
+Table parts_table(const geom::BrakeModel& model, UnitSystem u) {
   Table t;
   t.widths = {12, 52, 12, 72, 32};
   t.align = {Align::centre, Align::left, Align::centre, Align::left, Align::right};
   t.rows.push_back({"Item", "Name", "Qty", "Material", "Mass each"});
   int item = 0;
   for (const geom::PartInfo& p : model.parts()) {
-    char mass[32];
-    std::snprintf(mass, sizeof mass, "%.2f kg", p.mass);
     t.rows.push_back({std::to_string(++item), p.name, std::to_string(p.instance_names.size()),
-                      p.material, mass});
+                      p.material, qty(p.mass, Quantity::mass, u, 3)});
   }
   return t;
 }
 
 std::vector<std::string> general_notes(const Design& d, UnitSystem u) {
   std::vector<std::string> n;
-  n.push_back(std::string("Dimensions in ") + (u == UnitSystem::si ? "millimetres" : "inches") +
-              ", from the drum centre; values in ( ) are reference dimensions computed from the pin "
-              "layout.");
-  n.push_back("Applied position drawn; lever released position (radial clearance " +
-              dim_length(d.band.clearance, u) + ") as a phantom line. First-angle projection.");
+  n.push_back(std::string("Dimensions in ") + (u == UnitSystem::si ? "mm" : "inches") +
+              " from the drum centre; ( ) = reference dimension computed from the pin layout.");
+  n.push_back("Applied position shown; lever released (radial clearance " +
+              dim_length(d.band.clearance, u) + ") as a phantom line.");
   return n;
 }
 
 // ---- zones ---------------------------------------------------------------------------------
 
-constexpr double kNotesLines = 6;
+// Lines of the notes area: the heading, the general notes as wrapped, two spare for
+// annotations that had to be dropped.
+double notes_lines(const Canvas& c, const std::vector<std::string>& notes, double width) {
+  double n = 1 + 1;
+  for (size_t i = 0; i < notes.size(); ++i) {
+    n += static_cast<double>(wrap_lines(c, std::to_string(i + 1) + ". " + notes[i], Lettering::body, width).size());
+  }
+  return n;
+}
 
 // Tables, notes, caution and title block: nothing else may be drawn over them.
 std::vector<Box> obstacles(const Zones& z) {
@@ -119,12 +124,13 @@ std::vector<Box> obstacles(const Zones& z) {
           z.notes.grown(1)};
 }
 
-Zones make_zones(const Canvas& c, const SheetSize& s, double results_h, double parts_h) {
+Zones make_zones(const Canvas& c, const SheetSize& s, double results_h, double parts_h,
+                 double notes_lines) {
   Zones z;
   const Box f = frame_box(s);
   z.title_block = title_block_box(s);
   z.caution = caution_box(c, s);
-  const double notes_h = kNotesLines * Lettering::body * 1.65 + 1;
+  const double notes_h = notes_lines * Lettering::body * 1.65 + 1;
   if (s.width > s.height) {
     z.parts = {z.title_block.x0, z.caution.y1 + kGap, z.title_block.x1, z.caution.y1 + kGap + parts_h};
     const double w = std::min(180.0, z.title_block.x0 - f.x0 - 2 * kGap);
@@ -230,8 +236,14 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
   plan.hlr_ms = plan.front.milliseconds + plan.side.milliseconds;
 
   const UnitSystem any = UnitSystem::si;  // table heights do not depend on the units
-  plan.zones = make_zones(c, sheet, table_height(c, results_table(d, s, any)),
-                          table_height(c, parts_table(model)));
+  {
+    const Box f = frame_box(sheet);
+    const double notes_w = sheet.width > sheet.height ? title_block_box(sheet).x0 - f.x0 - 2 * kGap
+                                                      : f.width() - 2 * kGap;
+    plan.zones = make_zones(c, sheet, table_height(c, results_table(d, s, any)),
+                            table_height(c, parts_table(model, any)),
+                            notes_lines(c, general_notes(d, any), notes_w));
+  }
   const Box area = plan.zones.views;
   const Features f = features(d);
   const Margins fm = front_margins(f), sm = side_margins();
@@ -280,7 +292,10 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
     }
     if (all.width() > area.width() || all.height() > area.height()) continue;
     // Scan origins on a 2 mm grid for the free spot nearest the top centre of the sheet.
-    const Pt target{(area.x0 + area.x1) / 2, area.y1 - all.height() / 2};
+    // Centred over the tables when there is room, else as high as needed.
+    const double tables_top = std::max({plan.zones.parts.y1, plan.zones.notes.y1, plan.zones.results.y1});
+    const Pt target{(area.x0 + area.x1) / 2,
+                    std::min((tables_top + area.y1) / 2, area.y1 - all.height() / 2)};
     bool found = false;
     Pt best;
     double best_score = 1e18;
@@ -548,7 +563,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
     const double rim = drum_proportions(d.drum).rim_thickness * kM;
     const double zx0 = b / 2 - 14, zx1 = std::max(w, b) / 2 + 10;
     (void)rim;
-    const Box window{zx0, r - 6, zx1, band_outer + 6};
+    const Box window{zx0, r - 9, zx1, band_outer + 9};
     // Largest ISO 5455 scale (enlargements allowed for details) giving a detail ≤ 80 × 60 mm.
     const int scales[] = {10, 5, 2, 1};
     int kd = 0;
@@ -593,8 +608,8 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
         LinearDim band_t{dm(Pt{ex, r + t_l}), dm(Pt{ex, band_outer}), {0, 1}, dim_length(t / kM, u), {}};
         LinearDim lin_t{dm(Pt{ex, r}), dm(Pt{ex, r + t_l}), {0, 1}, dim_length(t_l / kM, u), {}};
         const double lx = dm(Pt{ex, 0}).x;
-        band_t.levels = {-(lx + 8), -(lx + 16)};
-        lin_t.levels = {-(lx + 20), -(lx + 12), -(lx + 26)};
+        for (double off = 8; off <= 40; off += 4) band_t.levels.push_back(-(lx + off));
+        for (double off = 16; off <= 44; off += 4) lin_t.levels.push_back(-(lx + off));
         if (!place_linear(c, local, band_t)) notes.push_back("band thickness " + band_t.text + ": no room in detail X");
         if (t_l > 0 && !place_linear(c, local, lin_t)) notes.push_back("lining thickness " + lin_t.text + ": no room in detail X");
         placed = true;
@@ -641,6 +656,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
     for (auto& [key, it] : by_y) ys.push_back(it);
     std::sort(xs.begin(), xs.end(), [](const Item& p, const Item& q) { return std::abs(p.p.x) < std::abs(q.p.x); });
     std::sort(ys.begin(), ys.end(), [](const Item& p, const Item& q) { return std::abs(p.p.y) < std::abs(q.p.y); });
+    std::vector<LinearDim> dims;
     int level = 0;
     for (const Item& it : xs) {
       const Pt fp = front(it.p);
@@ -651,7 +667,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
       dd.text = dim_length(it.p.x / kM, u);
       const double base = below ? fv.y0 - 8 : fv.y1 + 8;
       dd.levels = levels_from(below ? base - kLevel * level : base + kLevel * level, below ? -kLevel : kLevel, 6);
-      dim_or_note(x, dd, "horizontal position");
+      dims.push_back(dd);
       ++level;
     }
     level = 0;
@@ -668,8 +684,20 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
       std::vector<double> lv;
       for (int i = 0; i < 6; ++i) lv.push_back(-(left ? base - kLevel * (level + i) : base + kLevel * (level + i)));
       dd.levels = lv;
-      dim_or_note(x, dd, "vertical position");
+      dims.push_back(dd);
       ++level;
+    }
+    // Keep the values off the extension lines still to come: reserve each feature's corridor
+    // out to its first candidate line before any value is placed.
+    for (const LinearDim& dd : dims) {
+      const Pt n{-dd.along.y, dd.along.x};
+      for (Pt p : {dd.p1, dd.p2}) {
+        const double far = dd.levels.front();
+        occ.add_segment(p, p + n * (far - dot(p, n)));
+      }
+    }
+    for (const LinearDim& dd : dims) {
+      dim_or_note(x, dd, dd.along.x != 0 ? "horizontal position" : "vertical position");
     }
   }
   {
@@ -711,11 +739,12 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
       dd.p2 = front(F);
       dd.along = unit(dd.p2 - dd.p1);
       const Pt n{-dd.along.y, dd.along.x};
-      // On the perpendicular itself first, then offset to either side with extension lines.
+      // On the perpendicular itself first, then slid along the run (a dimension between the run
+      // line and its parallel through the pivot, with extension lines parallel to the run).
       dd.levels = {dot(dd.p1, n)};
-      for (int j = 1; j <= 4; ++j) {
-        dd.levels.push_back(dot(dd.p1, n) + 6.0 * j);
-        dd.levels.push_back(dot(dd.p1, n) - 6.0 * j);
+      for (double j = 5; j <= 60; j += 5) {
+        dd.levels.push_back(dot(dd.p1, n) + j);
+        dd.levels.push_back(dot(dd.p1, n) - j);
       }
       dd.text = "(" + dim_length(std::abs(e.arm), u) + ")";
       dim_or_note(x, dd, std::string("perpendicular arm of run ") + (i == 0 ? "A" : "B"));
@@ -752,9 +781,14 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
     const bool cw = d.drum.rotation == Turn::cw;
     const double tip = cw ? mid - half : mid + half;
     arrowhead(c, polar(C, rho, tip), cw ? Pt{std::sin(tip), -std::cos(tip)} : Pt{-std::sin(tip), std::cos(tip)}, 3.5);
-    const std::string text = std::string("drum rotation ") + turn_word(d.drum.rotation) + " (design)";
-    std::vector<Pt> cands = around(polar(C, rho, mid), 5, 70);
-    if (!place_label(c, occ, polar(C, rho, mid), cands, text, Lettering::body, true)) {
+    const std::string text = std::string("drum rotation ") + turn_word(d.drum.rotation);
+    const Pt am = polar(C, rho, mid);
+    // Beside the arrow if there is room (shortened if need be), else with a leader.
+    if (!place_label(c, occ, am, around(am, 4, 14), text, Lettering::body, false) &&
+        !place_label(c, occ, am, around(am, 4, 14), std::string("rotation ") + turn_word(d.drum.rotation),
+                     Lettering::body, false) &&
+        !place_label(c, occ, am, around(am, 4, 10), turn_word(d.drum.rotation), Lettering::heading, false) &&
+        !place_label(c, occ, am, around(am, 18, 70), text, Lettering::body, true)) {
       notes.push_back("the drum rotation the brake is designed for is " + std::string(turn_word(d.drum.rotation)));
     }
     for (int i = 0; i < 2; ++i) {
@@ -802,24 +836,37 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
     Table rt = results_table(d, s, u);
     fit_width(rt, z.results.width());
     draw_table(c, rt, {z.results.x0, z.results.y1});
-    Table pt = parts_table(model);
+    Table pt = parts_table(model, u);
     fit_width(pt, z.parts.width());
     draw_table(c, pt, {z.parts.x0, z.parts.y1});
-    std::vector<std::string> lines = general_notes(d, u);
-    for (const auto& n : notes) lines.push_back(n);
-    double y = z.notes.y1 - Lettering::body;
-    c.text({z.notes.x0, y}, "NOTES", Lettering::body);
-    y -= Lettering::body * 1.65;
-    int count = 0;
-    for (size_t i = 0; i < lines.size(); ++i) {
-      for (const auto& l : wrap_lines(c, std::to_string(i + 1) + ". " + lines[i], Lettering::body, z.notes.width())) {
-        if (y < z.notes.y0) break;
-        c.text({z.notes.x0, y}, l, Lettering::body);
-        y -= Lettering::body * 1.65;
-        ++count;
+    std::vector<std::string> text = {"NOTES"};
+    std::vector<std::string> items = general_notes(d, u);
+    for (const auto& n : notes) items.push_back(n);
+    for (size_t i = 0; i < items.size(); ++i) {
+      for (auto& l : wrap_lines(c, std::to_string(i + 1) + ". " + items[i], Lettering::body, z.notes.width())) {
+        text.push_back(std::move(l));
       }
     }
-    (void)count;
+    const double pitch = Lettering::body * 1.65;
+    const double need = static_cast<double>(text.size()) * pitch;
+    Box box = z.notes;
+    if (box.height() < need) {
+      // Not reserved (portrait) or too small: the first free band above the tables.
+      bool found = false;
+      for (double y0 = z.notes.y0; y0 + need < z.views.y1 && !found; y0 += 2) {
+        const Box b{z.notes.x0, y0, z.notes.x1, y0 + need};
+        if (occ.free(b)) {
+          box = b;
+          found = true;
+        }
+      }
+      if (!found) box.y1 = box.y0 + need;  // overflow below: better than no notes
+    }
+    double y = box.y1 - Lettering::body;
+    for (const auto& l : text) {
+      c.text({box.x0, y}, l, Lettering::body);
+      y -= pitch;
+    }
   }
 }
 

@@ -16,7 +16,7 @@ namespace bandforge::drawing {
 namespace {
 
 constexpr double kH = Lettering::body;
-constexpr double kPitch = kH * 1.65;
+constexpr double kPitch = kH * 1.5;
 
 Block heading(std::string text) {
   Block b;
@@ -75,8 +75,10 @@ Block table_block(Table t) {
     Table f = t;
     fit_width(f, w);
     const size_t body = f.rows.size() - (f.header ? 1 : 0);
-    const size_t n = rows_fitting(c, f, avail);
-    if (n < 2 || body < 4 || n + 2 > body) return std::nullopt;
+    size_t n = rows_fitting(c, f, avail);
+    if (n >= body || body < 4) return std::nullopt;
+    n = std::min(n, body - 2);  // never leave a lone row for the continuation
+    if (n < 2) return std::nullopt;
     const size_t first = f.header ? 1 : 0;
     return std::make_pair(table_block(table_rows(t, first, first + n)),
                           table_block(table_rows(t, first + n, t.rows.size())));
@@ -223,7 +225,7 @@ Table inputs_table(const Design& d, const Solution& s, UnitSystem u, Refs& refs)
     row("End A pin", "E_A", point(d.band.end_a.at, u), std::string("on the ") + to_string(d.band.end_a.mount));
     row("End B pin", "E_B", point(d.band.end_b.at, u), std::string("on the ") + to_string(d.band.end_b.mount));
     row("Lever pivot", "O", point(d.lever.pivot, u));
-    row("Handle (force point)", "H", point(d.lever.handle, u), "force ⟂ O→H, applying sense");
+    row("Handle (force point)", "H", point(d.lever.handle, u), "force ⊥ O→H, applying sense");
   } else {
     const Concept& k = d.concept_arms;
     row("Brake kind", "", kind_name(k.kind), "[concept]");
@@ -328,8 +330,8 @@ Table forces_table(const Design& d, const Solution& s, UnitSystem u) {
     const bool a_tight = order[k] == 0;
     for (int f = 0; f < 3; ++f) {
       const auto& res = s.results[order[k]][f];
-      head.push_back(std::string(k == 0 ? "design " : "reverse ") + turn_name(rotation_for(s, a_tight)) +
-                     (a_tight ? " A" : " B") + " tight f = " + fnum(res.friction));
+      head.push_back(std::string(turn_name(rotation_for(s, a_tight))) + (a_tight ? " A" : " B") +
+                     "\nf " + fnum(res.friction));
     }
   }
   t.rows.push_back(head);
@@ -431,7 +433,7 @@ Table capacity_thermal_table(const Design& d, const Solution& s, UnitSystem u) {
 
 Table checks_table(const Solution& s, UnitSystem u) {
   Table t;
-  t.widths = {46, 22, 22, 70, 14};
+  t.widths = {44, 21, 21, 80, 12};
   t.align = {Align::left, Align::right, Align::right, Align::left, Align::centre};
   t.rows.push_back({"Check (governing case)", "Value", "Limit", "Source of the limit", "Result"});
   for (const Check& c : s.checks) {
@@ -541,7 +543,7 @@ Plot lever_plot(const Design& d, const Solution& s, UnitSystem u) {
 }
 
 Block plot_block(Plot plot) {
-  constexpr double kHeight = 72;
+  constexpr double kHeight = 55;
   Block b;
   b.height = [](const Canvas&, double) { return kHeight; };
   b.draw = [plot](Canvas& c, Pt p, double w) { draw_plot(c, plot, {p.x, p.y - kHeight, p.x + w, p.y}); };
@@ -584,19 +586,23 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSy
   }
   b.push_back(heading(s.layout.from_pins ? "3  Layout from the pins" : "3  Concept layout"));
   b.push_back(table_block(layout_table(d, s, u)));
-  b.push_back(heading("4  Forces and stresses, both rotations, f_min / f_nominal / f_max"));
-  b.push_back(table_block(forces_table(d, s, u)));
-  b.push_back(heading(s.thermal.present ? "5  Capacity and thermal duty" : "5  Capacity"));
-  b.push_back(table_block(capacity_thermal_table(d, s, u)));
-  b.push_back(heading("6  Checks"));
-  b.push_back(table_block(checks_table(s, u)));
-  if (!s.warnings.empty()) {
-    b.push_back(heading("7  Warnings"));
-    b.push_back(paragraphs(s.warnings, true));
+  {
+    const bool pa = s.primary_a_tight;
+    b.push_back(heading(std::string("4  Forces and stresses: design ") + turn_name(rotation_for(s, pa)) +
+                        " and reverse, over the friction range"));
   }
-  b.push_back(heading(s.warnings.empty() ? "7  Plots" : "8  Plots"));
+  b.push_back(table_block(forces_table(d, s, u)));
+  b.push_back(heading("5  Plots"));
   b.push_back(plot_block(tension_plot(d, s, u)));
   b.push_back(plot_block(lever_plot(d, s, u)));
+  b.push_back(heading(s.thermal.present ? "6  Capacity and thermal duty" : "6  Capacity"));
+  b.push_back(table_block(capacity_thermal_table(d, s, u)));
+  b.push_back(heading("7  Checks"));
+  b.push_back(table_block(checks_table(s, u)));
+  if (!s.warnings.empty()) {
+    b.push_back(heading("8  Warnings"));
+    b.push_back(paragraphs(s.warnings, true));
+  }
   return b;
 }
 

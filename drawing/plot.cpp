@@ -89,7 +89,7 @@ void draw_plot(Canvas& c, const Plot& p, Box frame) {
       if (l.value < y0 || l.value > y1) continue;
       const Pt a = map({x0, l.value}), b = map({x1, l.value});
       c.line(a, b);
-      c.text({a.x + 1.5, a.y + 0.8}, l.label, hs, Align::left, 0, l.ink);
+      c.text({b.x - 1.5, b.y + 0.8}, l.label, hs, Align::right, 0, l.ink);
     } else {
       if (l.value < x0 || l.value > x1) continue;
       const Pt a = map({l.value, y0}), b = map({l.value, y1});

@@ -20,7 +20,7 @@ double row_height(const Canvas& c, const Table& t, const std::vector<std::string
   for (size_t i = 0; i < row.size() && i < t.widths.size(); ++i) {
     lines = std::max(lines, cell_lines(c, t, i, row[i]).size());
   }
-  return static_cast<double>(lines) * pitch(t) + 0.6 * t.h;
+  return static_cast<double>(lines) * pitch(t) + 0.45 * t.h;
 }
 
 }  // namespace
@@ -60,6 +60,8 @@ double table_height(const Canvas& c, const Table& t) {
 double draw_table(Canvas& c, const Table& t, Pt top_left) {
   const double total_w = t.width();
   double y = top_left.y;
+  // A white ground hides whatever the frame put under the table (centring marks, grid ticks).
+  c.fill_rect({top_left.x, top_left.y - table_height(c, t), top_left.x + total_w, top_left.y}, {1, 1, 1});
   c.pen(Pen::narrow);
   for (size_t r = 0; r < t.rows.size(); ++r) {
     const auto& row = t.rows[r];
@@ -71,7 +73,7 @@ double draw_table(Canvas& c, const Table& t, Pt top_left) {
       const Align a = i < t.align.size() ? t.align[i] : Align::left;
       const bool fail = !t.fail_marker.empty() && row[i].rfind(t.fail_marker, 0) == 0;
       const Ink ink = fail ? Ink{0.8, 0, 0} : Ink{};
-      double ty = y - 0.3 * t.h - (pitch(t) - t.h) / 2 - t.h;
+      double ty = y - 0.225 * t.h - (pitch(t) - t.h) / 2 - t.h;
       for (const auto& line : lines) {
         const double tx = a == Align::left    ? x + t.pad
                           : a == Align::right ? x + t.widths[i] - t.pad

@@ -25,6 +25,12 @@ std::string ellipsize(const Canvas& c, std::string_view text, double h, double w
 }
 
 std::vector<std::string> wrap_lines(const Canvas& c, std::string_view text, double h, double width) {
+  // Explicit line breaks first, then each paragraph wrapped at spaces.
+  if (const size_t nl = text.find('\n'); nl != std::string_view::npos) {
+    auto lines = wrap_lines(c, text.substr(0, nl), h, width);
+    for (auto& l : wrap_lines(c, text.substr(nl + 1), h, width)) lines.push_back(std::move(l));
+    return lines;
+  }
   std::vector<std::string> lines;
   std::string line;
   size_t i = 0;

@@ -16,7 +16,7 @@ double fitted_height(const Canvas& c, std::string_view text, double h, double wi
 /// `text`, cut at a character boundary and ended with "…" if it is wider than `width`.
 std::string ellipsize(const Canvas& c, std::string_view text, double h, double width);
 
-/// Breaks `text` at spaces into lines no wider than `width` (a single long word stays whole).
+/// Breaks `text` at '\n' and at spaces into lines no wider than `width` (a single long word stays whole).
 std::vector<std::string> wrap_lines(const Canvas& c, std::string_view text, double h, double width);
 
 }  // namespace bandforge::drawing

@@ -203,7 +203,7 @@ class Builder {
 
   std::size_t part(PartKind kind, const std::string& name, const std::string& material,
                    double density, Rgb colour, const TopoDS_Shape& shape) {
-    m_.parts.push_back({kind, shape});
+    m_.parts.push_back({kind, shape, TopoDS_Shape()});
     PartInfo info;
     info.name = name;
     info.material = material;
@@ -292,6 +292,12 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   // Drum, band and lining are built from their back faces (z = 0) and placed by a translation:
   // an identity placement would make OCCT's STEP writer drop the instance name.
   b.instance(drum, "DRUM", translation({0, 0}, ax.drum_back));
+  // Clearances to the drum are measured to its outer cylinder: anything that must clear the
+  // friction surface clears the web and hub inside it, and the distance is ~5× faster.
+  m.parts[drum].envelope = building("drum envelope", [&] {
+    return make_rod(dd.diameter / 2, (dd.width - std::max(dd.width, dd.hub_length)) / 2,
+                    std::max(dd.width, dd.hub_length));
+  });
 
   // Band and lining on the circle of the state built: r_b applied, r_b + c released.
   const Layout& lay = m.layout;
@@ -401,6 +407,8 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     if (s.on_frame) touch(name, "ANCHOR-" + s.id);
   }
 
+  m.intended = intended;
+  if (!options.checks) return BrakeModel(std::move(impl));
   try {
     run_checks(m, intended);
   } catch (const Standard_Failure& e) {

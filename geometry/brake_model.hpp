@@ -43,7 +43,9 @@ struct ContactCheck {
   bool intended = false;     ///< an intended contact (band on drum, pin in hole)
   bool ok = true;
   /// Smallest distance between the two [mm] for parts that must stay clear; −1 when not
-  /// measured (intended contacts, whose distance is zero by design).
+  /// measured (intended contacts, whose distance is zero by design). Measured to the drum's
+  /// outer cylinder (Ø D × face width), and from the bounding boxes when those alone keep the
+  /// parts apart: both can only understate the clearance.
   double distance = -1;
   double min_distance = 0;   ///< required clearance for parts that must stay clear [mm]
 };
@@ -53,6 +55,9 @@ struct BuildOptions {
   /// Throw BuildError on an invalid solid or a failed contact check (the command's behaviour).
   /// false returns the model with the failures recorded, for inspection.
   bool reject_failures = true;
+  /// Run the checks (validity, mass properties, interference). Only the benchmark turns this
+  /// off, to time the solids alone; without checks parts() has no volumes or masses.
+  bool checks = true;
 };
 
 class BrakeModel {

@@ -10,8 +10,11 @@
 #include <BRepExtrema_DistShapeShape.hxx>
 #include <BRepGProp.hxx>
 #include <Bnd_Box.hxx>
+#include <Standard_Failure.hxx>
+#include <TopTools_ListOfShape.hxx>
 #include <GProp_GProps.hxx>
 #include <TopExp_Explorer.hxx>
+#include <TopLoc_Location.hxx>
 #include <TopoDS.hxx>
 
 #include "geometry/assemble.hpp"
@@ -40,7 +43,15 @@ int solid_count(const TopoDS_Shape& s) {
 
 // Boolean common of two solids; zero when the boolean finds nothing shared.
 double common_volume(const TopoDS_Shape& a, const TopoDS_Shape& b) {
-  BRepAlgoAPI_Common common(a, b);
+  BRepAlgoAPI_Common common;
+  TopTools_ListOfShape args, tools;
+  args.Append(a);
+  tools.Append(b);
+  common.SetArguments(args);
+  common.SetTools(tools);
+  // Leave the arguments untouched: they are the model's shapes, shared by several instances.
+  common.SetNonDestructive(Standard_True);
+  common.Build();
   if (!common.IsDone() || common.HasErrors()) {
     throw BuildError("the boolean common failed");
   }
@@ -51,7 +62,9 @@ double common_volume(const TopoDS_Shape& a, const TopoDS_Shape& b) {
 }  // namespace
 
 void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended) {
-  // Validity and mass properties, per distinct part.
+  // One thread on purpose: on two shared cores, OCCT's thread pool made the checks slower and
+  // less predictable (measured, geometry/README.md), and sequential checks need no care about
+  // OCCT's thread safety.
   m.valid = true;
   m.solid_ok.assign(m.parts.size(), false);
   for (std::size_t i = 0; i < m.parts.size(); ++i) {
@@ -63,8 +76,9 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended) {
     info.mass = info.volume * 1e-9 * info.density;  // mm³ → m³
     // One closed solid, valid, with material inside (an inside-out solid has negative volume).
     m.solid_ok[i] = solid_count(s) == 1 && BRepCheck_Analyzer(s).IsValid() && info.volume > 0;
-    m.valid = m.valid && m.solid_ok[i];
   }
+  for (std::size_t i = 0; i < m.parts.size(); ++i) m.valid = m.valid && m.solid_ok[i];
+
   // Centroid of each part's first instance, in assembly coordinates.
   const std::vector<BrakeModel::Impl::Placed> placed = m.placed();
   std::vector<bool> seen(m.parts.size(), false);
@@ -77,34 +91,62 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended) {
     m.infos[p.part].centroid = {c.X(), c.Y(), c.Z()};
   }
 
-  // Pairwise: bounding boxes first; then intended contacts must not overlap (common volume) and
-  // all other pairs must keep clear (distance, and the overlap when they do not).
+  // Pairs whose bounding boxes come within the clearance of each other. Intended contacts must
+  // not overlap (common volume); all other pairs must keep clear (distance, and their overlap
+  // when they do not).
   std::vector<Bnd_Box> boxes(placed.size());
   for (std::size_t i = 0; i < placed.size(); ++i) BRepBndLib::Add(placed[i].shape, boxes[i]);
-  m.contacts.clear();
+  struct Pair {
+    std::size_t i, j;
+    bool boxes_apart;  // only watched: the boxes already keep the parts apart
+  };
+  // The lever's clearance to the band and to the drum is always reported (REFERENCE §1.9:
+  // the lever must clear the drum), even when the boxes alone prove it.
+  auto watched = [&](std::size_t i, std::size_t j) {
+    const PartKind a = m.parts[placed[i].part].kind, b = m.parts[placed[j].part].kind;
+    auto is = [&](PartKind x, PartKind y) { return (a == x && b == y) || (a == y && b == x); };
+    return is(PartKind::lever, PartKind::band) || is(PartKind::lever, PartKind::drum);
+  };
+  std::vector<Pair> pairs;
   for (std::size_t i = 0; i < placed.size(); ++i) {
     for (std::size_t j = i + 1; j < placed.size(); ++j) {
       Bnd_Box bi = boxes[i];
       bi.Enlarge(least_clearance);
-      if (bi.IsOut(boxes[j])) continue;
-      ContactCheck c;
-      c.part_a = m.instances[i].name;
-      c.part_b = m.instances[j].name;
-      auto key = std::minmax(c.part_a, c.part_b);
-      c.intended = intended.count({key.first, key.second}) > 0;
-      c.tolerance = common_tolerance;
-      if (!c.intended) {
-        c.min_distance = least_clearance;
-        BRepExtrema_DistShapeShape d(placed[i].shape, placed[j].shape);
-        if (!d.IsDone()) throw BuildError("the distance between " + c.part_a + " and " + c.part_b + " failed");
+      const bool apart = bi.IsOut(boxes[j]);
+      if (!apart || watched(i, j)) pairs.push_back({i, j, apart});
+    }
+  }
+  auto envelope = [&](std::size_t i) {
+    const auto& part = m.parts[placed[i].part];
+    return part.envelope.IsNull() ? placed[i].shape
+                                  : part.envelope.Moved(TopLoc_Location(m.instances[i].placement));
+  };
+  m.contacts.assign(pairs.size(), ContactCheck{});
+  for (std::size_t k = 0; k < pairs.size(); ++k) {
+    const auto [i, j, boxes_apart] = pairs[k];
+    ContactCheck& c = m.contacts[k];
+    c.part_a = m.instances[i].name;
+    c.part_b = m.instances[j].name;
+    const auto key = std::minmax(c.part_a, c.part_b);
+    c.intended = intended.count({key.first, key.second}) > 0;
+    c.tolerance = common_tolerance;
+    if (!c.intended) {
+      c.min_distance = least_clearance;
+      if (boxes_apart) {
+        // A lower bound, and exact for plates facing each other across an axial gap.
+        c.distance = boxes[i].Distance(boxes[j]);
+      } else {
+        BRepExtrema_DistShapeShape d(envelope(i), envelope(j));
+        if (!d.IsDone()) {
+          throw BuildError("the distance between " + c.part_a + " and " + c.part_b + " failed");
+        }
         c.distance = d.Value();
       }
-      // Parts apart by more than the clearance share no volume: skip the boolean.
-      c.common_volume = c.distance > least_clearance ? 0.0
-                                                      : common_volume(placed[i].shape, placed[j].shape);
-      c.ok = c.common_volume <= c.tolerance && (c.intended || c.distance >= c.min_distance);
-      m.contacts.push_back(c);
     }
+    // Parts apart by more than the clearance share no volume: skip the boolean.
+    c.common_volume = c.distance > least_clearance ? 0.0
+                                                    : common_volume(placed[i].shape, placed[j].shape);
+    c.ok = c.common_volume <= c.tolerance && (c.intended || c.distance >= c.min_distance);
   }
 }
 

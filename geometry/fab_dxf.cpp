@@ -87,10 +87,21 @@ void write_tables(DL_Dxf& dxf, DL_WriterA& dw, bool r2000) {
   dw.sectionEnd();
 }
 
-void write_contour(DL_Dxf& dxf, DL_WriterA& dw, const std::vector<FlatVertex>& c) {
+void write_contour(DL_Dxf& dxf, DL_WriterA& dw, const std::vector<FlatVertex>& c, bool r2000) {
   dxf.writePolyline(dw, DL_PolylineData(static_cast<int>(c.size()), 0, 0, 1 /* closed */),
                     on("CUT"));
-  for (const FlatVertex& v : c) dxf.writeVertex(dw, DL_VertexData(v.x, v.y, 0.0, v.bulge));
+  for (const FlatVertex& v : c) {
+    if (r2000) {
+      // dxflib's writeVertex adds a group 30 to each LWPOLYLINE vertex, a code the LWPOLYLINE
+      // entity does not have (its vertices are 10/20 with 42 for the bulge; strict readers
+      // reject unknown codes), so the vertex groups are written here through dxflib's writer.
+      dw.dxfReal(10, v.x);
+      dw.dxfReal(20, v.y);
+      if (v.bulge != 0) dw.dxfReal(42, v.bulge);
+    } else {
+      dxf.writeVertex(dw, DL_VertexData(v.x, v.y, 0.0, v.bulge));  // R12 VERTEX: 10/20/30/42
+    }
+  }
   dxf.writePolylineEnd(dw);
 }
 
@@ -151,7 +162,7 @@ void write_dxf(const FlatPart& part, DxfVersion version, const std::string& path
   write_tables(dxf, *dw, r2000);
 
   dw->sectionEntities();
-  for (const auto& c : part.contours) write_contour(dxf, *dw, c);
+  for (const auto& c : part.contours) write_contour(dxf, *dw, c, r2000);
   for (const FlatCircle& h : part.holes) {
     dxf.writeCircle(*dw, DL_CircleData(h.x, h.y, 0.0, h.radius), on("CUT"));
   }

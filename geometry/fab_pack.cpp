@@ -1,9 +1,11 @@
 // The fab/ folder: one DXF per flat part and cutlist.csv, computed in full before anything is
 // written, then written through a staging folder that is renamed only when every file exists.
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
+#include <numbers>
 #include <string>
 #include <vector>
 
@@ -166,9 +168,12 @@ FabPack make_fab_pack(const Design& design, const Solution& solution, const Brak
   for (const char* kind : {"pin", "grip"}) {
     for (std::size_t i : parts_of_kind(model, kind)) {
       const BarSize s = bar_size(model, i);
+      // Mass from the bar size and the solid's density, so it holds without the model's checks.
+      const double mass = std::numbers::pi * s.diameter * s.diameter / 4 * s.length * 1e-9 *
+                          infos[i].density;
       pack.rows.push_back({infos[i].name, "", infos[i].material, "round bar", s.diameter, s.length,
-                           s.diameter, static_cast<int>(infos[i].instance_names.size()),
-                           infos[i].mass, "becomes " + joined(infos[i].instance_names)});
+                           s.diameter, static_cast<int>(infos[i].instance_names.size()), mass,
+                           "becomes " + joined(infos[i].instance_names)});
     }
   }
   return pack;
@@ -196,6 +201,22 @@ void write_fab_files(const FabPack& pack, DxfVersion version,
                      const std::function<std::string(const std::string&)>& path_for) {
   for (const FlatPart& f : pack.parts) write_dxf(f, version, path_for(f.file));
   write_text_file(path_for("cutlist.csv"), cutlist_csv(pack.rows));
+}
+
+void remove_stale_fab_files(const std::string& fab_dir, const FabPack& pack) {
+  std::error_code ec;
+  std::vector<fs::path> stale;
+  for (const auto& e : fs::directory_iterator(fab_dir, ec)) {
+    const std::string name = e.path().filename().string();
+    const bool ours = e.path().extension() == ".dxf" || name == "cutlist.csv";
+    const bool current = name == "cutlist.csv" ||
+                         std::any_of(pack.parts.begin(), pack.parts.end(),
+                                     [&](const FlatPart& f) { return f.file == name; });
+    if (ours && !current) stale.push_back(e.path());
+  }
+  for (const fs::path& p : stale) {
+    if (!fs::remove(p, ec) && ec) throw IoError("cannot remove " + p.string() + ": " + ec.message());
+  }
 }
 
 void write_fab_pack(const Design& design, const Solution& solution, const BrakeModel& model,

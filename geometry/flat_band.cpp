@@ -29,7 +29,8 @@ constexpr double lining_max_strain = 0.03;
 
 // Eye joint (the tail laid back on the run and riveted; common practice, no source): rivet
 // diameter 2t rounded up to a whole millimetre, at least 5 mm; edge and end distance 2d; pitch 3d;
-// rivets in single shear at the design's pin allowable shear.
+// as many columns as fit across the width; at least two rows, more until the rivets in single
+// shear at the design's pin allowable shear carry the largest tight-side tension.
 constexpr double joint_rivet_min = 5.0;  // [mm]
 
 const char* end_key(bool a) { return a ? "band.end_a.at" : "band.end_b.at"; }
@@ -55,6 +56,7 @@ struct Joint {
   double lap = 0;              // [mm] tail length laid back on the run
   double tension = 0;          // largest tight-side tension the joint carries [N]
   double capacity = 0;         // rivet shear capacity of one joint [N]
+  double tau = 0;              // allowable rivet shear stress [Pa]
 };
 
 // Everything in millimetres, from the design and the applied layout.
@@ -107,11 +109,12 @@ Joint eye_joint(const Design& d, const Solution& s, const Plan& p) {
   for (const auto& dir : s.results) {
     for (const DirectionResult& r : dir) j.tension = std::max(j.tension, r.tension_tight);
   }
-  const double tau = d.band.pin_allowable_shear > 0 ? d.band.pin_allowable_shear
-                                                    : d.band.allowable_stress / std::sqrt(3.0);
-  const double per_rivet = tau * pi * j.rivet * j.rivet / 4 * 1e-6;  // Pa·mm² → N
+  j.tau = d.band.pin_allowable_shear > 0 ? d.band.pin_allowable_shear
+                                          : d.band.allowable_stress / std::sqrt(3.0);
+  const double per_rivet = j.tau * pi * j.rivet * j.rivet / 4 * 1e-6;  // Pa·mm² → N
   const int need = static_cast<int>(std::ceil(j.tension / per_rivet - 1e-9));
-  j.rows = std::max(cols == 1 ? 2 : 1, (need + cols - 1) / cols);
+  // At least two rows, so that the lap does not hinge about a single row of rivets.
+  j.rows = std::max(2, (need + cols - 1) / cols);
   j.capacity = per_rivet * j.rows * cols;
   j.lap = 2 * j.edge + (j.rows - 1) * j.pitch;
   return j;
@@ -204,7 +207,9 @@ FlatPart band_blank(const Design& d, const Solution& s, const PartInfo& band) {
   const double xs[] = {x1, x2, x3, x4, x5, x6};
   for (int i = 0; i < 6; ++i) {
     f.bend_lines.push_back({xs[i], 0, xs[i], p.b});
-    f.tags.push_back({xs[i] + 1.5, p.b + 2.0, 3.5, "B" + std::to_string(i + 1)});
+    std::string tag = "B";
+    tag += std::to_string(i + 1);  // not "B" + std::to_string(): a false -Wrestrict in GCC 12
+    f.tags.push_back({xs[i] + 1.5, p.b + 2.0, 3.5, tag});
   }
   // Lining rivets: the same angles as on the lining, developed on the band's neutral radius.
   for (double theta : p.rivets.angles) {
@@ -239,7 +244,8 @@ FlatPart band_blank(const Design& d, const Solution& s, const PartInfo& band) {
       "  + lap A " + num(j.lap, 3) + " + lap B " + num(j.lap, 3) +
           ": tail laid back on the run outside and riveted (eye joint)",
       "B1-B2, B5-B6: form eyes A and B round a dia " + num(2 * p.pin_r, 2) +
-          " mandrel (inside radius " + num(p.pin_r, 2) + " >= t), tail outside the run",
+          " mandrel (inside radius " + num(p.pin_r, 2) + " >= t), tail outside the run; no pin "
+          "holes: the pins pass through the eyes",
       "B3-B4: roll to neutral radius " + num(p.r_b, 3) + " (inside radius " +
           num(p.r_b - p.t / 2, 3) + " = drum radius " + num(p.r, 2) + " + lining " +
           num(p.lining_t, 2) + "), lining side inside",
@@ -247,6 +253,8 @@ FlatPart band_blank(const Design& d, const Solution& s, const PartInfo& band) {
           " across x " + std::to_string(j.rows) + " rows in each tail and run, edge " +
           num(j.edge, 1) + ", pitch " + num(j.pitch, 1) + "; single shear " + num(j.capacity / 1000, 2) +
           " kN >= largest tight-side tension " + num(j.tension / 1000, 2) + " kN",
+      "  rule: d = max(5, 2t), edge 2d, pitch 3d, at least 2 rows, shear at the pin allowable " +
+          num(j.tau / 1e6, 1) + " MPa (common practice, no source); check the joint for the duty",
   };
   if (p.rivets.hole > 0) {
     f.notes.push_back("lining rivet holes: " +

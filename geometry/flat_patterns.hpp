@@ -120,6 +120,10 @@ void write_fab_files(const FabPack& pack, DxfVersion version,
 void write_fab_pack(const Design& design, const Solution& solution, const BrakeModel& model,
                     const std::string& outdir, DxfVersion version);
 
+/// Removes from `fab_dir` the DXF files and cut list that `pack` did not write (an earlier build
+/// of a design with more parts, e.g. a lining since set to zero thickness). Other files stay.
+void remove_stale_fab_files(const std::string& fab_dir, const FabPack& pack);
+
 /// The cut list as CSV text (RFC 4180, header line, '.' decimals, '\n' line ends).
 std::string cutlist_csv(const std::vector<CutListRow>& rows);
 

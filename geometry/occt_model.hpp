@@ -15,7 +15,9 @@
 #pragma once
 
 #include <cstddef>
+#include <set>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include <TopoDS_Shape.hxx>
@@ -45,7 +47,11 @@ struct BrakeModel::Impl {
   /// One distinct part (one STEP product). parts[i] belongs with infos[i].
   struct Part {
     PartKind kind = PartKind::drum;
-    TopoDS_Shape shape;  ///< a single valid solid in part coordinates [mm]
+    TopoDS_Shape shape;     ///< a single valid solid in part coordinates [mm]
+    /// A simpler solid that contains `shape` (same coordinates), used for clearance distances
+    /// (the drum: its outer cylinder); null = the shape itself. Overlaps are always measured
+    /// on `shape`.
+    TopoDS_Shape envelope;
   };
   /// One placement of a part (one STEP instance, NAUO).
   struct Instance {
@@ -64,6 +70,10 @@ struct BrakeModel::Impl {
   std::vector<PartInfo> infos;  ///< same order as parts; what BrakeModel::parts() returns
   std::vector<Instance> instances;
   std::vector<ContactCheck> contacts;
+  /// Instance-name pairs (each pair sorted) meant to touch: pins in their holes and eyes, the
+  /// lining on the band and, applied, on the drum (bare band: the band on the drum), the grip
+  /// on the lever. Every other pair must keep clear.
+  std::set<std::pair<std::string, std::string>> intended;
   bool valid = true;           ///< every solid passed BRepCheck_Analyzer
   std::vector<bool> solid_ok;  ///< per part: one valid closed solid of positive volume
 

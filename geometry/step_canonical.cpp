@@ -5,6 +5,7 @@
 #include <cstdint>
 #include <cstdio>
 #include <cstdlib>
+#include <map>
 #include <string>
 #include <unordered_map>
 #include <vector>
@@ -291,6 +292,32 @@ std::string exact_colours(std::string_view s, const std::vector<std::array<doubl
         break;
       }
     }
+  }
+  out.append(s.substr(from));
+  return out;
+}
+
+std::string occurrence_ids_from_one(std::string_view s) {
+  static constexpr std::string_view key = "NEXT_ASSEMBLY_USAGE_OCCURRENCE('";
+  // Pass 1: the numeric ids in use; pass 2: replace each by its rank.
+  std::map<long, long> rank;
+  std::vector<std::pair<std::size_t, std::size_t>> spans;  // id text [begin, end)
+  for (std::size_t at = s.find(key); at != std::string_view::npos; at = s.find(key, at + 1)) {
+    const std::size_t begin = at + key.size();
+    std::size_t end = begin;
+    while (end < s.size() && s[end] >= '0' && s[end] <= '9') ++end;
+    if (end == begin || end >= s.size() || s[end] != '\'') continue;  // not a plain number
+    rank[std::stol(std::string(s.substr(begin, end - begin)))] = 0;
+    spans.push_back({begin, end});
+  }
+  long next = 0;
+  for (auto& [id, r] : rank) r = ++next;
+  std::string out;
+  std::size_t from = 0;
+  for (auto [begin, end] : spans) {
+    out.append(s.substr(from, begin - from));
+    out.append(std::to_string(rank[std::stol(std::string(s.substr(begin, end - begin)))]));
+    from = end;
   }
   out.append(s.substr(from));
   return out;

@@ -22,6 +22,11 @@ std::string canonical_step(std::string_view text);
 /// writes them back as e.g. 0.750000000934; the file should carry the values the design chose.
 std::string exact_colours(std::string_view text, const std::vector<std::array<double, 3>>& exact);
 
+/// Renumbers the ids of NEXT_ASSEMBLY_USAGE_OCCURRENCE ('1', '2', ... by rank of the numeric id
+/// written). OCCT counts these ids across exports in one process, so the second export of the
+/// same model would otherwise say '11'..'20' where the first said '1'..'10'.
+std::string occurrence_ids_from_one(std::string_view text);
+
 /// A Part 21 REAL: shortest round-trip decimal with a decimal point ("0.75", "1.", "1.5E-07").
 std::string part21_real(double v);
 

@@ -129,7 +129,8 @@ void write_step(const BrakeModel& model, const Design& design, const std::string
   try {
     std::vector<std::array<double, 3>> colours;
     for (const PartInfo& p : m.infos) colours.push_back({p.colour.r, p.colour.g, p.colour.b});
-    write_file(partial, canonical_step(exact_colours(read_file(partial), colours)));
+    write_file(partial, canonical_step(
+                            occurrence_ids_from_one(exact_colours(read_file(partial), colours))));
   } catch (...) {
     std::remove(partial.c_str());
     throw;

@@ -48,8 +48,22 @@ namespace fs = std::filesystem;
 const std::string kSource = BANDFORGE_SOURCE_DIR;
 const std::string kExample = kSource + "/examples/bin-hoist.toml";
 
+fs::path scratch_root() {
+  return fs::temp_directory_path() / ("bandforge-step-test-" + std::to_string(::getpid()));
+}
+
+// Removes this run's scratch files when the test program ends.
+class Scratch : public testing::Environment {
+ public:
+  void TearDown() override {
+    std::error_code ec;
+    fs::remove_all(scratch_root(), ec);
+  }
+};
+const testing::Environment* const scratch = testing::AddGlobalTestEnvironment(new Scratch);
+
 fs::path fresh_dir(const std::string& name) {
-  const fs::path p = fs::temp_directory_path() / ("bandforge-step-test-" + std::to_string(::getpid())) / name;
+  const fs::path p = scratch_root() / name;
   fs::remove_all(p);
   fs::create_directories(p);
   return p;
@@ -244,7 +258,14 @@ TEST(BuildCommand, JsonIsTheOnlyThingOnStdout) {
   EXPECT_EQ(j["state"], "applied");
   EXPECT_TRUE(j["valid"].get<bool>());
   EXPECT_TRUE(j["ok"].get<bool>());
-  EXPECT_EQ(j["files"].size(), 1u);
+  // Every file listed exists; the STEP assembly is among them.
+  bool step = false;
+  for (const auto& f : j["files"]) {
+    EXPECT_TRUE(fs::exists(f.get<std::string>())) << f;
+    step = step || fs::path(f.get<std::string>()).filename() == "KFW-2207-BR.step";
+  }
+  EXPECT_TRUE(step);
+  EXPECT_FALSE(fs::exists(dir / ".KFW-2207-BR.partial"));
   EXPECT_EQ(j["parts"].size(), 8u);  // drum, band, lining, lever, grip, anchor, two pin lengths
   EXPECT_GE(j["contacts"].size(), 5u);
 }
@@ -297,6 +318,13 @@ TEST(BuildCommand, ConceptDesignExitsTwo) {
   EXPECT_TRUE(fs::is_empty(out));
 }
 
+TEST(StepExport, SameBytesWhenOneProcessWritesTwice) {
+  // A library user may export several times in one process; OCCT counts some ids across exports.
+  const Written first = write_example("twice1");
+  const Written second = write_example("twice2");
+  EXPECT_TRUE(slurp(first.file) == slurp(second.file));
+}
+
 // The canonical renumbering on hand-written Part 21 text.
 const char* kHead = "ISO-10303-21;\nHEADER;\nFILE_SCHEMA(('X'));\nENDSEC;\nDATA;\n";
 const char* kTail = "ENDSEC;\nEND-ISO-10303-21;\n";
@@ -322,6 +350,14 @@ TEST(StepCanonical, StringsKeepTheirHashesAndSemicolons) {
   const std::string a = std::string(kHead) + "#5 = PRODUCT('A#1; ''x''','n',$,(#6));\n#6 = C('');\n" + kTail;
   const std::string c = canonical_step(a);
   EXPECT_NE(c.find("#1 = PRODUCT('A#1; ''x''','n',$,(#2));"), std::string::npos) << c;
+}
+
+TEST(StepCanonical, OccurrenceIdsStartAtOneInTheirOrder) {
+  const std::string t = "#1 = NEXT_ASSEMBLY_USAGE_OCCURRENCE('12','PIN-A','',#2,#3,$);\n"
+                        "#4 = NEXT_ASSEMBLY_USAGE_OCCURRENCE('11','DRUM','',#2,#5,$);\n";
+  EXPECT_EQ(occurrence_ids_from_one(t),
+            "#1 = NEXT_ASSEMBLY_USAGE_OCCURRENCE('2','PIN-A','',#2,#3,$);\n"
+            "#4 = NEXT_ASSEMBLY_USAGE_OCCURRENCE('1','DRUM','',#2,#5,$);\n");
 }
 
 TEST(StepCanonical, RejectsWhatItCannotRead) {
@@ -360,15 +396,3 @@ TEST(StepHeader, NonAsciiTextIsEncodedForPart21) {
 }  // namespace
 }  // namespace bandforge::geom
 
-namespace bandforge::geom {
-namespace {
-
-TEST(StepExport, SameBytesWhenOneProcessWritesTwice) {
-  // A library user may export several times in one process; OCCT counts some ids across exports.
-  const Written first = write_example("twice1");
-  const Written second = write_example("twice2");
-  EXPECT_TRUE(slurp(first.file) == slurp(second.file));
-}
-
-}  // namespace
-}  // namespace bandforge::geom

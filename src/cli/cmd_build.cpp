@@ -18,6 +18,7 @@
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
 #include "geometry/brake_model.hpp"
+#include "geometry/flat_patterns.hpp"
 #endif
 
 namespace bandforge::cli {
@@ -30,6 +31,7 @@ struct BuildCommand {
   std::string out_dir;
   bool released = false;
   bool json = false;
+  std::string dxf_version = "r2000";  ///< flat patterns: "r2000" (AC1015) or "r12" (AC1009)
 };
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
@@ -191,6 +193,8 @@ void run_build(const BuildCommand& cmd) {
   geom::BuildOptions options;
   options.released = cmd.released;
   const geom::BrakeModel model = geom::build_brake(design, solution, options);
+  // Flattened before anything is written: a part that cannot be flattened leaves no files.
+  const geom::FabPack fab = geom::make_fab_pack(design, solution, model);
 
   const std::string stem = file_stem(design.project.number);
   Staging staging(cmd.out_dir, stem);
@@ -199,8 +203,11 @@ void run_build(const BuildCommand& cmd) {
   //   drawing::write_drawing(design, solution, &applied, &released_model, units,
   //                          staging.path(stem + ".pdf"));
   // where the drawing needs the applied model and the released one for the phantom lever.
-  // Flat patterns (issue 5, fab/): write each DXF to staging.path("fab/<part>.dxf") here.
+  const geom::DxfVersion dxf =
+      cmd.dxf_version == "r12" ? geom::DxfVersion::r12 : geom::DxfVersion::r2000;
+  geom::write_fab_files(fab, dxf, [&](const std::string& f) { return staging.path("fab/" + f); });
   const std::vector<std::string> files = staging.commit();
+  geom::remove_stale_fab_files((fs::path(cmd.out_dir) / "fab").string(), fab);
 
   if (cmd.json) {
     std::cout << to_json(design, model, cmd.released, files).dump(2) << '\n';
@@ -230,6 +237,10 @@ void setup_build(CLI::App& app) {
   sub->add_flag("--released", cmd->released,
                 "build the released state: band lifted by the clearance, lever turned back");
   sub->add_flag("--json", cmd->json, "print one JSON object (parts, checks, files) on stdout");
+  sub->add_option("--dxf-version", cmd->dxf_version,
+                  "DXF of the flat patterns in OUTDIR/fab/: r2000 (AC1015, default) or r12 (AC1009, "
+                  "no $INSUNITS)")
+      ->check(CLI::IsMember({"r2000", "r12"}));
   sub->callback([cmd] { run_build(*cmd); });
 }
 

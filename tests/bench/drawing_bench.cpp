@@ -1,0 +1,102 @@
+// PDF drawing stages for the bundled example. Target (issue 4): the whole `bandforge build`
+// (solve, solids, checks, STEP, PDF) under 250 ms wall, peak memory under 200 MB (measure the
+// command with /usr/bin/time -v). Run: build/tests/bench/drawing_bench
+#include <filesystem>
+#include <string>
+
+#include <benchmark/benchmark.h>
+
+#include "drawing/drawing.hpp"
+#include "geometry/brake_model.hpp"
+#include "geometry/projection.hpp"
+#include "src/design_reader.hpp"
+#include "src/mechanics.hpp"
+
+namespace {
+
+using namespace bandforge;
+
+const Design& example() {
+  static const Design d =
+      read_design_file(std::string(BANDFORGE_SOURCE_DIR) + "/examples/bin-hoist.toml");
+  return d;
+}
+
+const Solution& solution() {
+  static const Solution s = solve(example());
+  return s;
+}
+
+const geom::BrakeModel& applied() {
+  static const geom::BrakeModel m = geom::build_brake(example(), solution(), {});
+  return m;
+}
+
+// The released state is only drawn (the lever's phantom position): no checks needed.
+geom::BuildOptions released_options() {
+  geom::BuildOptions o;
+  o.released = true;
+  o.checks = false;
+  return o;
+}
+
+const geom::BrakeModel& released() {
+  static const geom::BrakeModel m = geom::build_brake(example(), solution(), released_options());
+  return m;
+}
+
+// Exact hidden-line removal, one view each.
+void BM_HlrFront(benchmark::State& state) {
+  for (auto _ : state) benchmark::DoNotOptimize(geom::project(applied(), geom::front_view()));
+}
+BENCHMARK(BM_HlrFront)->Unit(benchmark::kMillisecond);
+
+void BM_HlrSide(benchmark::State& state) {
+  for (auto _ : state) benchmark::DoNotOptimize(geom::project(applied(), geom::left_view()));
+}
+BENCHMARK(BM_HlrSide)->Unit(benchmark::kMillisecond);
+
+void BM_HlrReleasedLever(benchmark::State& state) {
+  geom::ProjectOptions o;
+  o.hidden = false;
+  o.smooth = false;
+  o.kinds = {"lever", "grip"};
+  for (auto _ : state) benchmark::DoNotOptimize(geom::project(released(), geom::front_view(), o));
+}
+BENCHMARK(BM_HlrReleasedLever)->Unit(benchmark::kMillisecond);
+
+// The released model the drawing needs in addition to the applied one.
+void BM_ReleasedModel(benchmark::State& state) {
+  for (auto _ : state) benchmark::DoNotOptimize(geom::build_brake(example(), solution(), released_options()));
+}
+BENCHMARK(BM_ReleasedModel)->Unit(benchmark::kMillisecond);
+
+// The whole PDF in memory: HLR of all views, layout, both sheets, libharu output.
+void BM_RenderPdf(benchmark::State& state) {
+  for (auto _ : state) {
+    benchmark::DoNotOptimize(
+        drawing::render_drawing(example(), solution(), &applied(), &released(), UnitSystem::si));
+  }
+}
+BENCHMARK(BM_RenderPdf)->Unit(benchmark::kMillisecond);
+
+// The calculation sheet alone (a concept design's whole PDF): layout and libharu, no views.
+void BM_RenderCalculationOnly(benchmark::State& state) {
+  for (auto _ : state) {
+    benchmark::DoNotOptimize(drawing::render_drawing(example(), solution(), nullptr, nullptr, UnitSystem::si));
+  }
+}
+BENCHMARK(BM_RenderCalculationOnly)->Unit(benchmark::kMillisecond);
+
+// To the file: render, temporary file, rename.
+void BM_WritePdf(benchmark::State& state) {
+  const std::string path = (std::filesystem::temp_directory_path() / "bandforge-drawing-bench.pdf").string();
+  for (auto _ : state) {
+    benchmark::DoNotOptimize(
+        drawing::write_drawing(example(), solution(), &applied(), &released(), UnitSystem::si, path));
+  }
+  std::filesystem::remove(path);
+}
+BENCHMARK(BM_WritePdf)->Unit(benchmark::kMillisecond);
+
+}  // namespace

@@ -1,0 +1,490 @@
+// The PDF drawing, checked by independent readers: poppler (pdfinfo, pdffonts, pdftotext,
+// pdftoppm), qpdf, and `bandforge solve --json` for the values. Sheet sizes come from ISO 216
+// (REFERENCE §5.1) converted to points here, not from the drawing code.
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include <cmath>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <memory>
+#include <regex>
+#include <sstream>
+#include <string>
+#include <vector>
+
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+#include "drawing/drawing.hpp"
+#include "geometry/brake_model.hpp"
+#include "src/design_reader.hpp"
+#include "src/errors.hpp"
+#include "src/mechanics.hpp"
+
+namespace bandforge::drawing {
+namespace {
+
+namespace fs = std::filesystem;
+
+const std::string kSource = BANDFORGE_SOURCE_DIR;
+const std::string kExample = kSource + "/examples/bin-hoist.toml";
+
+fs::path scratch_root() {
+  return fs::temp_directory_path() / ("bandforge-drawing-test-" + std::to_string(::getpid()));
+}
+
+class Scratch : public testing::Environment {
+ public:
+  void TearDown() override {
+    std::error_code ec;
+    fs::remove_all(scratch_root(), ec);
+  }
+};
+const auto* const kScratch = testing::AddGlobalTestEnvironment(new Scratch);
+
+fs::path scratch(const std::string& name) {
+  fs::create_directories(scratch_root());
+  return scratch_root() / name;
+}
+
+struct Run {
+  int status = -1;
+  std::string out;
+};
+
+// Runs a shell command, stdout captured, stderr discarded (poppler warns about libharu's
+// ToUnicode CMap on every call; TOOLCHAIN.md).
+Run run(const std::string& cmd) {
+  Run r;
+  FILE* p = ::popen((cmd + " 2>/dev/null").c_str(), "r");
+  if (!p) return r;
+  char buf[4096];
+  size_t n;
+  while ((n = std::fread(buf, 1, sizeof buf, p)) > 0) r.out.append(buf, n);
+  const int st = ::pclose(p);
+  r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
+  return r;
+}
+
+std::string quote(const fs::path& p) { return "'" + p.string() + "'"; }
+
+std::string read_bytes(const fs::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+// One drawn design: the model built once per design and kept for the tests that share it.
+struct Drawn {
+  Design design;
+  Solution solution;
+  std::unique_ptr<geom::BrakeModel> applied, released;
+  SheetPlan plan;
+  fs::path pdf;
+};
+
+std::unique_ptr<Drawn> draw(const std::string& design_file, const std::string& out_name,
+                            UnitSystem units = UnitSystem::si, const std::string& sheet = "") {
+  auto d = std::make_unique<Drawn>();
+  d->design = read_design_file(design_file);
+  if (!sheet.empty()) d->design.drawing.sheet = sheet;
+  d->solution = solve(d->design);
+  if (!d->design.concept_arms.present) {
+    d->applied = std::make_unique<geom::BrakeModel>(geom::build_brake(d->design, d->solution, {}));
+    geom::BuildOptions rel;
+    rel.released = true;
+    d->released = std::make_unique<geom::BrakeModel>(geom::build_brake(d->design, d->solution, rel));
+  }
+  d->pdf = scratch(out_name);
+  d->plan = write_drawing(d->design, d->solution, d->applied.get(), d->released.get(), units,
+                          d->pdf.string());
+  return d;
+}
+
+const Drawn& example() {
+  static std::unique_ptr<Drawn> d = draw(kExample, "bin-hoist.pdf");
+  return *d;
+}
+
+std::string text_of(const fs::path& pdf, int page = 0, bool layout = false) {
+  std::string cmd = "pdftotext";
+  if (layout) cmd += " -layout";
+  if (page > 0) cmd += " -f " + std::to_string(page) + " -l " + std::to_string(page);
+  return run(cmd + " " + quote(pdf) + " -").out;
+}
+
+// ---- sheet ----------------------------------------------------------------------------------
+
+// ISO 216 trimmed sizes in mm (REFERENCE §5.1), 1 in = 25.4 mm = 72 pt.
+double pt(double mm) { return mm / 25.4 * 72.0; }
+
+void expect_page_sizes(const fs::path& pdf, int pages, double w_mm, double h_mm) {
+  const Run info = run("pdfinfo -f 1 -l 99 " + quote(pdf));
+  ASSERT_EQ(info.status, 0);
+  std::smatch m;
+  ASSERT_TRUE(std::regex_search(info.out, m, std::regex(R"(Pages:\s+(\d+))")));
+  EXPECT_EQ(std::stoi(m[1]), pages);
+  const std::regex size(R"(Page\s+(\d+) size:\s+([\d.]+) x ([\d.]+) pts)");
+  int seen = 0;
+  for (auto it = std::sregex_iterator(info.out.begin(), info.out.end(), size); it != std::sregex_iterator(); ++it) {
+    ++seen;
+    EXPECT_NEAR(std::stod((*it)[2]), pt(w_mm), 0.01) << "page " << (*it)[1];
+    EXPECT_NEAR(std::stod((*it)[3]), pt(h_mm), 0.01) << "page " << (*it)[1];
+  }
+  EXPECT_EQ(seen, pages);
+}
+
+TEST(DrawingSheet, DefaultIsA3LandscapeOnEveryPage) {
+  const Drawn& d = example();
+  EXPECT_EQ(d.plan.sheet, "A3");
+  EXPECT_TRUE(d.plan.assembly);
+  ASSERT_GE(d.plan.pages, 2);  // assembly drawing + calculation sheet(s)
+  expect_page_sizes(d.pdf, d.plan.pages, 420, 297);  // 1190.55 × 841.89 pt
+}
+
+TEST(DrawingSheet, A4IsPortraitAndA2Landscape) {
+  auto a4 = draw(kExample, "a4.pdf", UnitSystem::si, "A4");
+  expect_page_sizes(a4->pdf, a4->plan.pages, 210, 297);
+  auto a2 = draw(kExample, "a2.pdf", UnitSystem::si, "A2");
+  expect_page_sizes(a2->pdf, a2->plan.pages, 594, 420);
+  // A larger sheet never gets a smaller scale (ISO 5455 steps).
+  EXPECT_GE(static_cast<double>(a2->plan.scale_num) / a2->plan.scale_den,
+            static_cast<double>(example().plan.scale_num) / example().plan.scale_den);
+  EXPECT_GE(static_cast<double>(example().plan.scale_num) / example().plan.scale_den,
+            static_cast<double>(a4->plan.scale_num) / a4->plan.scale_den);
+}
+
+TEST(DrawingSheet, ScaleIsAnIso5455Scale) {
+  // REFERENCE §5.4: full size and reductions 1:2, 1:5, 1:10, 1:20, 1:50, 1:100 ...
+  const SheetPlan& p = example().plan;
+  EXPECT_EQ(p.scale_num, 1);
+  const std::vector<int> iso = {1, 2, 5, 10, 20, 50, 100, 200, 500, 1000};
+  EXPECT_NE(std::find(iso.begin(), iso.end(), p.scale_den), iso.end()) << p.scale_den;
+  EXPECT_NE(text_of(example().pdf, 1).find(std::to_string(p.scale_num) + ":" + std::to_string(p.scale_den)),
+            std::string::npos);
+}
+
+TEST(DrawingSheet, QpdfFindsNoErrors) {
+  const Run r = run("qpdf --check " + quote(example().pdf));
+  EXPECT_EQ(r.status, 0) << r.out;
+  EXPECT_NE(r.out.find("No syntax or stream encoding errors"), std::string::npos) << r.out;
+}
+
+TEST(DrawingSheet, FontIsEmbedded) {
+  const Run r = run("pdffonts " + quote(example().pdf));
+  ASSERT_EQ(r.status, 0);
+  // name, type, encoding, emb, sub, uni: the DejaVu row must say emb = yes.
+  std::smatch m;
+  ASSERT_TRUE(std::regex_search(r.out, m, std::regex(R"((\S*DejaVuSans\S*)\s+CID TrueType\s+\S+\s+(yes|no))")))
+      << r.out;
+  EXPECT_EQ(m[2], "yes") << r.out;
+  // Only that font: nothing falls back to a non-embedded base-14 font.
+  EXPECT_EQ(r.out.find(" no  "), std::string::npos) << r.out;
+}
+
+// ---- text -----------------------------------------------------------------------------------
+
+TEST(DrawingText, TitleBlockCarriesTheProjectFields) {
+  const Drawn& d = example();
+  const std::string page1 = text_of(d.pdf, 1);
+  const Project& p = d.design.project;
+  for (const std::string& field : {p.title, p.number, p.owner, p.creator, p.approver, p.date}) {
+    ASSERT_FALSE(field.empty());
+    EXPECT_NE(page1.find(field), std::string::npos) << field;
+  }
+  // ISO 7200 field labels and the values that are not in [project].
+  for (const char* s : {"Identification number", "Rev.", "Date of issue", "Sheet", "Scale", "Units",
+                        "Projection", "Assembly drawing"}) {
+    EXPECT_NE(page1.find(s), std::string::npos) << s;
+  }
+  EXPECT_NE(page1.find("1 / " + std::to_string(d.plan.pages)), std::string::npos);
+  const std::string last = text_of(d.pdf, d.plan.pages);
+  EXPECT_NE(last.find(std::to_string(d.plan.pages) + " / " + std::to_string(d.plan.pages)), std::string::npos);
+  EXPECT_NE(last.find("Calculation sheet"), std::string::npos);
+}
+
+TEST(DrawingText, CautionOnEveryPage) {
+  const Drawn& d = example();
+  for (int page = 1; page <= d.plan.pages; ++page) {
+    const std::string t = text_of(d.pdf, page);
+    EXPECT_NE(t.find("CAUTION"), std::string::npos) << "page " << page;
+    EXPECT_NE(t.find("licensed engineer"), std::string::npos) << "page " << page;
+  }
+}
+
+TEST(DrawingText, DrumDiameterCarriesTheDiameterSign) {
+  // examples/bin-hoist.toml: [drum] diameter = "400 mm".
+  EXPECT_NE(text_of(example().pdf, 1).find("Ø400"), std::string::npos);
+}
+
+Run solve_json(const std::string& design) {
+  return run(std::string(BANDFORGE_EXE) + " solve --json " + quote(design));
+}
+
+// The number printed after `label` on one line of pdftotext -layout output, `index`-th.
+std::vector<std::string> numbers_after(const std::string& text, const std::string& label) {
+  std::istringstream in(text);
+  std::string line;
+  while (std::getline(in, line)) {
+    const size_t at = line.find(label);
+    if (at == std::string::npos) continue;
+    std::vector<std::string> out;
+    const std::string rest = line.substr(at + label.size());
+    const std::regex num(R"((-?\d+(?:\.\d+)?))");
+    for (auto it = std::sregex_iterator(rest.begin(), rest.end(), num); it != std::sregex_iterator(); ++it) {
+      out.push_back((*it)[1]);
+    }
+    return out;
+  }
+  return {};
+}
+
+// Equal at the printed precision: the JSON value rounds to the printed digits.
+void expect_printed(const std::string& printed, double json_value, const std::string& what) {
+  const size_t dot = printed.find('.');
+  const int decimals = dot == std::string::npos ? 0 : static_cast<int>(printed.size() - dot - 1);
+  const double half_ulp = 0.5 * std::pow(10.0, -decimals);
+  EXPECT_LE(std::abs(std::stod(printed) - json_value), half_ulp * (1 + 1e-9))
+      << what << ": printed " << printed << ", solve --json " << json_value;
+}
+
+TEST(DrawingText, ResultsEqualSolveJson) {
+  const Run r = solve_json(kExample);
+  ASSERT_EQ(r.status, 0) << r.out;
+  const nlohmann::json j = nlohmann::json::parse(r.out);
+  const std::string primary = j.at("primary");
+  const std::string reverse = primary == "a_tight" ? "b_tight" : "a_tight";
+  const std::string page1 = text_of(example().pdf, 1, true);
+
+  const auto wrap = numbers_after(page1, "Wrap angle");
+  ASSERT_GE(wrap.size(), 1u);
+  expect_printed(wrap[0], j.at("wrap_angle_deg").get<double>(), "wrap angle [°]");
+
+  struct Row {
+    const char* label;
+    const char* key;
+    double scale;  // SI → printed unit
+  };
+  const Row rows[] = {
+      {"Tight tension P1", "tension_tight_N", 1.0},
+      {"Slack tension P2", "tension_slack_N", 1.0},
+      {"Braking torque T", "torque_Nm", 1.0},
+      {"Lever force F", "lever_force_N", 1.0},
+      {"Max lining pressure", "pressure_max_Pa", 1e-6},  // printed in MPa
+      {"Band stress", "band_stress_Pa", 1e-6},
+  };
+  for (const Row& row : rows) {
+    const auto v = numbers_after(page1, row.label);
+    ASSERT_GE(v.size(), 2u) << row.label;
+    expect_printed(v[0], j["directions"][primary][row.key].get<double>() * row.scale,
+                   std::string(row.label) + " (design rotation)");
+    expect_printed(v[1], j["directions"][reverse][row.key].get<double>() * row.scale,
+                   std::string(row.label) + " (reverse)");
+  }
+}
+
+TEST(DrawingText, WrapAngleIsDimensionedOnTheView) {
+  // The angular dimension prints the same value as the results table, so it appears at least
+  // twice on page 1 (dimension, results table twice, subtitle).
+  const Run r = solve_json(kExample);
+  ASSERT_EQ(r.status, 0);
+  const double wrap = nlohmann::json::parse(r.out).at("wrap_angle_deg").get<double>();
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.1f°", wrap);
+  const std::string page1 = text_of(example().pdf, 1);
+  size_t count = 0;
+  for (size_t at = page1.find(buf); at != std::string::npos; at = page1.find(buf, at + 1)) ++count;
+  EXPECT_GE(count, 4u) << buf;
+}
+
+TEST(DrawingText, UsUnitsGiveInchesAndPoundForce) {
+  auto us = draw(kExample, "us.pdf", UnitSystem::us);
+  const std::string page1 = text_of(us->pdf, 1);
+  // 400 mm = 15.748 in (exact inch 25.4 mm), printed to 0.01 in.
+  EXPECT_NE(page1.find("Ø15.75"), std::string::npos);
+  EXPECT_NE(page1.find("lbf"), std::string::npos);
+  EXPECT_EQ(page1.find(" N·m"), std::string::npos);
+  const std::string page2 = text_of(us->pdf, 2);
+  EXPECT_NE(page2.find("lbf"), std::string::npos);
+  EXPECT_NE(page2.find("psi"), std::string::npos);
+}
+
+// ---- rendering ------------------------------------------------------------------------------
+
+// A greyscale image from pdftoppm (-gray: binary PGM).
+struct Gray {
+  int w = 0, h = 0;
+  std::vector<unsigned char> px;
+  int at(int x, int y) const { return x < 0 || y < 0 || x >= w || y >= h ? 255 : px[static_cast<size_t>(y) * w + x]; }
+};
+
+Gray render(const fs::path& pdf, int page, int dpi) {
+  const fs::path stem = scratch("render-" + std::to_string(page) + "-" + std::to_string(dpi));
+  const Run r = run("pdftoppm -gray -r " + std::to_string(dpi) + " -f " + std::to_string(page) + " -l " +
+                    std::to_string(page) + " -singlefile " + quote(pdf) + " " + quote(stem));
+  Gray g;
+  if (r.status != 0) return g;
+  std::ifstream in(stem.string() + ".pgm", std::ios::binary);
+  std::string magic;
+  int maxval = 0;
+  in >> magic >> g.w >> g.h >> maxval;
+  in.get();
+  g.px.resize(static_cast<size_t>(g.w) * g.h);
+  in.read(reinterpret_cast<char*>(g.px.data()), static_cast<std::streamsize>(g.px.size()));
+  return g;
+}
+
+// Darkest pixel within `r` pixels of a sheet point given in mm from the lower-left corner.
+int darkest_near(const Gray& g, double x_mm, double y_mm, double sheet_h_mm, int dpi, int r) {
+  const double k = dpi / 25.4;
+  const int cx = static_cast<int>(std::lround(x_mm * k)), cy = static_cast<int>(std::lround((sheet_h_mm - y_mm) * k));
+  int best = 255;
+  for (int dy = -r; dy <= r; ++dy)
+    for (int dx = -r; dx <= r; ++dx) best = std::min(best, g.at(cx + dx, cy + dy));
+  return best;
+}
+
+TEST(DrawingRender, DrumOutlineIsInkAtItsScaledRadius) {
+  const Drawn& d = example();
+  const int dpi = 150;
+  const Gray g = render(d.pdf, 1, dpi);
+  ASSERT_GT(g.w, 0);
+  const double scale = static_cast<double>(d.plan.scale_num) / d.plan.scale_den;
+  // Drum radius from the design file (400 mm friction diameter), scaled to the sheet.
+  const double r_mm = d.design.drum.diameter / 2 * 1000 * scale;
+  int inked = 0;
+  for (int i = 0; i < 72; ++i) {
+    const double a = i * 2 * M_PI / 72 + 0.01;
+    const int v = darkest_near(g, d.plan.drum_x_mm + r_mm * std::cos(a), d.plan.drum_y_mm + r_mm * std::sin(a),
+                               d.plan.height_mm, dpi, 1);
+    inked += v < 128;
+  }
+  // The rim is a visible edge all round in the front view (the drum face is in front of the band).
+  EXPECT_EQ(inked, 72);
+  // Control: inside the bore, off the centre lines, the paper is blank.
+  const double bore = d.design.drum.bore / 2 * 1000 * scale;
+  EXPECT_GT(darkest_near(g, d.plan.drum_x_mm + 0.5 * bore * std::cos(0.8), d.plan.drum_y_mm + 0.5 * bore * std::sin(0.8),
+                         d.plan.height_mm, dpi, 1),
+            200);
+}
+
+TEST(DrawingRender, TitleBlockIsClearOfViewGeometry) {
+  const Drawn& d = example();
+  const double* tb = d.plan.title_block;
+  const double* vb = d.plan.views_box;
+  // The views' geometry does not reach the title block ...
+  EXPECT_TRUE(vb[2] < tb[0] || vb[0] > tb[2] || vb[3] < tb[1] || vb[1] > tb[3])
+      << "views " << vb[0] << " " << vb[1] << " " << vb[2] << " " << vb[3];
+  // ... and on the rendered page nothing crosses the white margins around it: the strip left of
+  // the title block and the gap between it and the caution box above are blank.
+  const int dpi = 150;
+  const Gray g = render(d.pdf, 1, dpi);
+  const double k = dpi / 25.4;
+  int ink = 0;
+  for (double y = tb[1] + 1; y < tb[3] - 1; y += 0.2) {
+    for (double x = tb[0] - 3.0; x < tb[0] - 1.0; x += 0.2) ink += darkest_near(g, x, y, d.plan.height_mm, dpi, 0) < 128;
+  }
+  for (double x = tb[0] + 1; x < tb[2] - 1; x += 0.2) {
+    for (double y = tb[3] + 0.8; y < tb[3] + 2.2; y += 0.2) ink += darkest_near(g, x, y, d.plan.height_mm, dpi, 0) < 128;
+  }
+  (void)k;
+  EXPECT_EQ(ink, 0);
+}
+
+// ---- reproducibility and failures -------------------------------------------------------------
+
+TEST(DrawingOutput, SameInputGivesTheSameBytes) {
+  const Drawn& d = example();
+  const fs::path again = scratch("again.pdf");
+  write_drawing(d.design, d.solution, d.applied.get(), d.released.get(), UnitSystem::si, again.string());
+  EXPECT_EQ(read_bytes(d.pdf), read_bytes(again));
+  // No clock time in the file (libharu writes no CreationDate/ID unless asked).
+  const std::string bytes = read_bytes(d.pdf);
+  EXPECT_EQ(bytes.find("/CreationDate"), std::string::npos);
+  EXPECT_EQ(bytes.find("/ModDate"), std::string::npos);
+  EXPECT_EQ(bytes.find("/ID"), std::string::npos);
+}
+
+TEST(DrawingOutput, BuildCommandWritesTheSamePdfInTwoProcesses) {
+  const fs::path a = scratch("proc-a"), b = scratch("proc-b");
+  const std::string exe = BANDFORGE_EXE;
+  ASSERT_EQ(run(exe + " build " + quote(kExample) + " -o " + quote(a)).status, 0);
+  ASSERT_EQ(run(exe + " build " + quote(kExample) + " -o " + quote(b)).status, 0);
+  const std::string number = example().design.project.number;
+  ASSERT_TRUE(fs::exists(a / (number + ".pdf")));
+  EXPECT_EQ(read_bytes(a / (number + ".pdf")), read_bytes(b / (number + ".pdf")));
+  EXPECT_EQ(read_bytes(a / (number + ".pdf")), read_bytes(example().pdf));
+}
+
+TEST(DrawingOutput, LayoutThatCannotFitNamesSheetAndScale) {
+  Design d = example().design;
+  d.drawing.sheet = "A4";
+  d.drawing.scale_num = 1;
+  d.drawing.scale_den = 1;  // a 1 m brake at full size on A4
+  const fs::path out = scratch("nofit.pdf");
+  try {
+    write_drawing(d, example().solution, example().applied.get(), example().released.get(), UnitSystem::si,
+                  out.string());
+    FAIL() << "expected a BuildError";
+  } catch (const BuildError& e) {
+    const std::string msg = e.what();
+    EXPECT_NE(msg.find("A4"), std::string::npos) << msg;
+    EXPECT_NE(msg.find("1:1"), std::string::npos) << msg;
+    EXPECT_EQ(e.code(), Exit::cannot_build);
+  }
+  EXPECT_FALSE(fs::exists(out));
+  EXPECT_FALSE(fs::exists(out.string() + ".tmp"));
+}
+
+TEST(DrawingOutput, UnwritablePathIsAnIoErrorAndLeavesNothing) {
+  const fs::path out = scratch("no-such-dir") / "x.pdf";
+  EXPECT_THROW(write_drawing(example().design, example().solution, example().applied.get(),
+                             example().released.get(), UnitSystem::si, out.string()),
+               IoError);
+  EXPECT_FALSE(fs::exists(out));
+}
+
+// ---- every example ------------------------------------------------------------------------
+
+TEST(DrawingExamples, EveryExampleIsDrawn) {
+  int pin_layouts = 0;
+  for (const auto& entry : fs::directory_iterator(kSource + "/examples")) {
+    if (entry.path().extension() != ".toml") continue;
+    SCOPED_TRACE(entry.path().string());
+    auto d = draw(entry.path().string(), entry.path().stem().string() + ".pdf");
+    EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
+    const std::string page1 = text_of(d->pdf, 1);
+    char dia[32];
+    std::snprintf(dia, sizeof dia, "Ø%g", d->design.drum.diameter * 1000);
+    if (d->design.concept_arms.present) {
+      // A concept design has no pins: calculation sheet only.
+      EXPECT_FALSE(d->plan.assembly);
+      EXPECT_EQ(page1.find("Assembly drawing"), std::string::npos);
+      EXPECT_NE(page1.find("Calculation sheet"), std::string::npos);
+      continue;
+    }
+    ++pin_layouts;
+    EXPECT_TRUE(d->plan.assembly);
+    EXPECT_NE(page1.find("Assembly drawing"), std::string::npos);
+    EXPECT_NE(page1.find(dia), std::string::npos) << dia;
+    EXPECT_NE(text_of(d->pdf, 2).find("Calculation sheet"), std::string::npos);
+    // The drum outline is where the plan says, at the sheet scale.
+    const Gray g = render(d->pdf, 1, 100);
+    const double r = d->design.drum.diameter / 2 * 1000 * d->plan.scale_num / d->plan.scale_den;
+    int inked = 0;
+    for (int i = 0; i < 24; ++i) {
+      const double a = i * 2 * M_PI / 24 + 0.02;
+      inked += darkest_near(g, d->plan.drum_x_mm + r * std::cos(a), d->plan.drum_y_mm + r * std::sin(a),
+                            d->plan.height_mm, 100, 1) < 128;
+    }
+    EXPECT_EQ(inked, 24);
+  }
+  EXPECT_GE(pin_layouts, 1);
+}
+
+}  // namespace
+}  // namespace bandforge::drawing
