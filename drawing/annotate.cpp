@@ -17,7 +17,6 @@ Pt unit(Pt a) {
 }
 Pt perp(Pt a) { return {-a.y, a.x}; }
 
-double cross(Pt a, Pt b) { return a.x * b.y - a.y * b.x; }
 
 // Separating-axis test for two convex polygons given as point lists (a segment is a 2-gon).
 bool separated(const Pt* a, int na, const Pt* b, int nb) {

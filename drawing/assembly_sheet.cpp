@@ -586,7 +586,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
       for (Pt top_left : spots) {
         const Box box{top_left.x, top_left.y - dh - label_h, top_left.x + dw, top_left.y};
         if (!occ.free(box.grown(10))) continue;
-        const Mapper dm{{box.x0 - window.x0 * kd, box.y0 + label_h - window.y0 * kd}, kd};
+        const Mapper dm{{box.x0 - window.x0 * kd, box.y0 + label_h - window.y0 * kd}, static_cast<double>(kd)};
         draw_clipped(c, plan.side, window, dm);
         c.pen(Pen::narrow);
         const Box frame{box.x0, box.y0 + label_h, box.x1, box.y1};
@@ -612,7 +612,15 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
         for (double off = 16; off <= 44; off += 4) lin_t.levels.push_back(-(lx + off));
         if (!place_linear(c, local, band_t)) notes.push_back("band thickness " + band_t.text + ": no room in detail X");
         if (t_l > 0 && !place_linear(c, local, lin_t)) notes.push_back("lining thickness " + lin_t.text + ": no room in detail X");
-        placed = true;
+        // Name the layers at the left of the detail, where the band covers the drum.
+        const double h_small = Lettering::label;
+        auto layer = [&](const char* name, double y0, double y1) {
+          const Pt at = dm(Pt{window.x0, (y0 + y1) / 2});
+          if ((y1 - y0) * kd >= h_small + 0.8) c.text({at.x + 1.5, at.y - h_small / 2}, name, h_small);
+        };
+        layer("band", r + t_l, band_outer);
+        if (t_l > 0) layer("lining", r, r + t_l);
+        layer("drum rim", window.y0, r);
         break;
       }
     }
@@ -854,9 +862,9 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
       // Not reserved (portrait) or too small: the first free band above the tables.
       bool found = false;
       for (double y0 = z.notes.y0; y0 + need < z.views.y1 && !found; y0 += 2) {
-        const Box b{z.notes.x0, y0, z.notes.x1, y0 + need};
-        if (occ.free(b)) {
-          box = b;
+        const Box band{z.notes.x0, y0, z.notes.x1, y0 + need};
+        if (occ.free(band)) {
+          box = band;
           found = true;
         }
       }

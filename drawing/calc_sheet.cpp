@@ -99,7 +99,13 @@ class Refs {
   }
   std::vector<std::string> lines() const {
     std::vector<std::string> out;
-    for (size_t i = 0; i < list_.size(); ++i) out.push_back("[" + std::to_string(i + 1) + "] " + list_[i]);
+    for (size_t i = 0; i < list_.size(); ++i) {
+      std::string line = "[";
+      line += std::to_string(i + 1);
+      line += "] ";
+      line += list_[i];
+      out.push_back(std::move(line));
+    }
     return out;
   }
   bool empty() const { return list_.empty(); }
@@ -128,8 +134,14 @@ std::string len(double m, UnitSystem u) {
 
 std::string point(Vec2 p, UnitSystem u) {
   const int dec = u == UnitSystem::si ? 2 : 4;
-  return "(" + plain(p.x, Quantity::length, u, dec) + ", " + plain(p.y, Quantity::length, u, dec) +
-         ") " + display_unit(Quantity::length, u);
+  // Appended piecewise: GCC 12 warns (-Wrestrict, a false positive) on "(" + std::string chains.
+  std::string s = "(";
+  s += plain(p.x, Quantity::length, u, dec);
+  s += ", ";
+  s += plain(p.y, Quantity::length, u, dec);
+  s += ") ";
+  s += display_unit(Quantity::length, u);
+  return s;
 }
 
 std::string fnum(double v) { return sig_figs(v, 3); }
@@ -582,7 +594,9 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSy
   b.push_back(heading("2  Inputs (design file " + std::filesystem::path(d.file).filename().string() + ")"));
   b.push_back(table_block(inputs_table(d, s, u, refs)));
   if (!refs.empty()) {
-    b.push_back(paragraphs(refs.lines(), false));
+    std::vector<std::string> lines = {"Sources of the material data:"};
+    for (auto& l : refs.lines()) lines.push_back(std::move(l));
+    b.push_back(paragraphs(lines, false));
   }
   b.push_back(heading(s.layout.from_pins ? "3  Layout from the pins" : "3  Concept layout"));
   b.push_back(table_block(layout_table(d, s, u)));

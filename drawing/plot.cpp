@@ -94,7 +94,7 @@ void draw_plot(Canvas& c, const Plot& p, Box frame) {
       if (l.value < x0 || l.value > x1) continue;
       const Pt a = map({l.value, y0}), b = map({l.value, y1});
       c.line(a, b);
-      c.text({a.x - 0.8, a.y + 1.5}, l.label, hs, Align::left, std::numbers::pi / 2, l.ink);
+      c.text({a.x - 1.2, a.y + 1.5}, l.label, hs, Align::left, std::numbers::pi / 2, l.ink);
     }
   }
   std::vector<Pt> drawn;  // every curve point on the sheet, to keep the legend off the curves

@@ -30,7 +30,7 @@ constexpr double grip_diameter = 30.0; // a hand grip: common practice, no sourc
 constexpr double grip_length = 100.0;  // one hand's width [mm]
 constexpr double steel_density = 7850; // carbon steel [kg/m³]: common practice, no source
 
-// Steel parts and their colours (sRGB, written exactly into the STEP file).
+// Part colours (sRGB, written with exactly these decimals into the STEP file).
 constexpr Rgb drum_colour{0.50, 0.50, 0.52};
 constexpr Rgb lining_colour{0.45, 0.30, 0.20};
 constexpr Rgb band_colour{0.25, 0.40, 0.60};

@@ -74,22 +74,18 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended) {
     BRepGProp::VolumeProperties(s, props);
     info.volume = props.Mass();
     info.mass = info.volume * 1e-9 * info.density;  // mm³ → m³
+    // Centroid of the first instance, in assembly coordinates.
+    for (const auto& in : m.instances) {
+      if (in.part != i) continue;
+      const gp_Pnt c = props.CentreOfMass().Transformed(in.placement);
+      info.centroid = {c.X(), c.Y(), c.Z()};
+      break;
+    }
     // One closed solid, valid, with material inside (an inside-out solid has negative volume).
     m.solid_ok[i] = solid_count(s) == 1 && BRepCheck_Analyzer(s).IsValid() && info.volume > 0;
+    m.valid = m.valid && m.solid_ok[i];
   }
-  for (std::size_t i = 0; i < m.parts.size(); ++i) m.valid = m.valid && m.solid_ok[i];
-
-  // Centroid of each part's first instance, in assembly coordinates.
   const std::vector<BrakeModel::Impl::Placed> placed = m.placed();
-  std::vector<bool> seen(m.parts.size(), false);
-  for (const auto& p : placed) {
-    if (seen[p.part]) continue;
-    seen[p.part] = true;
-    GProp_GProps props;
-    BRepGProp::VolumeProperties(p.shape, props);
-    const gp_Pnt c = props.CentreOfMass();
-    m.infos[p.part].centroid = {c.X(), c.Y(), c.Z()};
-  }
 
   // Pairs whose bounding boxes come within the clearance of each other. Intended contacts must
   // not overlap (common volume); all other pairs must keep clear (distance, and their overlap

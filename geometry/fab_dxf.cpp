@@ -37,6 +37,12 @@ constexpr Layer layers[] = {
 constexpr double text_height = 3.5;   // [mm]
 constexpr double line_spacing = 6.0;  // [mm]
 
+// Coordinates to a 1e-9 mm grid and bulges to 1e-12: the read-back from the solids leaves
+// round-off such as 810.0000000000001 or -3.7e-15, which dxflib would print in full. "+ 0.0"
+// turns a negative zero into zero.
+double mm9(double v) { return std::round(v * 1e9) / 1e9 + 0.0; }
+double bulge12(double v) { return std::round(v * 1e12) / 1e12 + 0.0; }
+
 DL_Attributes on(const char* layer) {
   // Colour, line weight and line type by layer.
   return DL_Attributes(layer, DL_Codes::bylayer, -1, -1, "BYLAYER");
@@ -95,11 +101,12 @@ void write_contour(DL_Dxf& dxf, DL_WriterA& dw, const std::vector<FlatVertex>& c
       // dxflib's writeVertex adds a group 30 to each LWPOLYLINE vertex, a code the LWPOLYLINE
       // entity does not have (its vertices are 10/20 with 42 for the bulge; strict readers
       // reject unknown codes), so the vertex groups are written here through dxflib's writer.
-      dw.dxfReal(10, v.x);
-      dw.dxfReal(20, v.y);
-      if (v.bulge != 0) dw.dxfReal(42, v.bulge);
+      dw.dxfReal(10, mm9(v.x));
+      dw.dxfReal(20, mm9(v.y));
+      if (bulge12(v.bulge) != 0) dw.dxfReal(42, bulge12(v.bulge));
     } else {
-      dxf.writeVertex(dw, DL_VertexData(v.x, v.y, 0.0, v.bulge));  // R12 VERTEX: 10/20/30/42
+      // R12 VERTEX: 10/20/30/42
+      dxf.writeVertex(dw, DL_VertexData(mm9(v.x), mm9(v.y), 0.0, bulge12(v.bulge)));
     }
   }
   dxf.writePolylineEnd(dw);
@@ -133,13 +140,13 @@ std::string ascii(const std::string& utf8) {
 void write_text(DL_Dxf& dxf, DL_WriterA& dw, double x, double y, double height,
                 const std::string& text) {
   dxf.writeText(dw,
-                DL_TextData(x, y, 0.0, x, y, 0.0, height, 1.0, 0, 0, 0, ascii(text), "Standard",
-                            0.0),
+                DL_TextData(mm9(x), mm9(y), 0.0, mm9(x), mm9(y), 0.0, height, 1.0, 0, 0, 0,
+                            ascii(text), "Standard", 0.0),
                 on("NOTES"));
 }
 
 void write_line(DL_Dxf& dxf, DL_WriterA& dw, const FlatLine& l, const char* layer) {
-  dxf.writeLine(dw, DL_LineData(l.x1, l.y1, 0.0, l.x2, l.y2, 0.0), on(layer));
+  dxf.writeLine(dw, DL_LineData(mm9(l.x1), mm9(l.y1), 0.0, mm9(l.x2), mm9(l.y2), 0.0), on(layer));
 }
 
 }  // namespace
@@ -164,7 +171,7 @@ void write_dxf(const FlatPart& part, DxfVersion version, const std::string& path
   dw->sectionEntities();
   for (const auto& c : part.contours) write_contour(dxf, *dw, c, r2000);
   for (const FlatCircle& h : part.holes) {
-    dxf.writeCircle(*dw, DL_CircleData(h.x, h.y, 0.0, h.radius), on("CUT"));
+    dxf.writeCircle(*dw, DL_CircleData(mm9(h.x), mm9(h.y), 0.0, mm9(h.radius)), on("CUT"));
   }
   for (const FlatLine& l : part.bend_lines) write_line(dxf, *dw, l, "BEND");
   for (const FlatLine& l : part.marks) write_line(dxf, *dw, l, "MARK");

@@ -213,7 +213,12 @@ ProjectedView project(const BrakeModel& model, const ViewSpec& view, const Proje
   const BrakeModel::Impl& m = model.impl();
   ProjectedView out;
   try {
-    Handle(HLRBRep_Algo) algo = new HLRBRep_Algo();
+    // One compound rather than one Add() per solid: the same visible and hidden edges (checked
+    // by total length on the example) in less than half the time, since the algorithm then
+    // does not hide each shape against every other one separately.
+    TopoDS_Compound all;
+    BRep_Builder builder;
+    builder.MakeCompound(all);
     int added = 0;
     for (const auto& placed : m.placed()) {
       const std::string kind = to_string(m.parts.at(placed.part).kind);
@@ -221,10 +226,12 @@ ProjectedView project(const BrakeModel& model, const ViewSpec& view, const Proje
           std::find(options.kinds.begin(), options.kinds.end(), kind) == options.kinds.end()) {
         continue;
       }
-      algo->Add(placed.shape);
+      builder.Add(all, placed.shape);
       ++added;
     }
     if (added == 0) return out;
+    Handle(HLRBRep_Algo) algo = new HLRBRep_Algo();
+    algo->Add(all);
     const gp_Ax2 axes(gp_Pnt(0, 0, 0),
                       gp_Dir(view.toward_viewer.x, view.toward_viewer.y, view.toward_viewer.z),
                       gp_Dir(view.right.x, view.right.y, view.right.z));

@@ -80,8 +80,11 @@ std::vector<Entity> parse_data(std::string_view s, std::size_t& pos) {
     while (pos < s.size() && !done) {
       const char c = s[pos];
       if (in_string) {
-        piece += c;
         ++pos;
+        // Line ends are not part of a Part 21 string; OCCT wraps long strings at widths that
+        // depend on the entity numbers.
+        if (c == '\n' || c == '\r') continue;
+        piece += c;
         if (c == '\'') {
           if (pos < s.size() && s[pos] == '\'') {
             piece += s[pos++];  // '' is a quote inside the string
@@ -320,6 +323,53 @@ std::string occurrence_ids_from_one(std::string_view s) {
     from = end;
   }
   out.append(s.substr(from));
+  return out;
+}
+
+namespace {
+
+// Decodes one UTF-8 sequence at s[i]; a malformed one becomes U+FFFD.
+char32_t next_code_point(std::string_view s, std::size_t& i) {
+  const unsigned char c = static_cast<unsigned char>(s[i++]);
+  int extra = c >= 0xf0 ? 3 : c >= 0xe0 ? 2 : c >= 0xc0 ? 1 : 0;
+  if (c >= 0x80 && extra == 0) return 0xfffd;
+  char32_t cp = extra == 3 ? c & 0x07 : extra == 2 ? c & 0x0f : extra == 1 ? c & 0x1f : c;
+  for (; extra > 0; --extra) {
+    if (i >= s.size() || (static_cast<unsigned char>(s[i]) & 0xc0) != 0x80) return 0xfffd;
+    cp = (cp << 6) | (static_cast<unsigned char>(s[i++]) & 0x3f);
+  }
+  return cp;
+}
+
+}  // namespace
+
+std::string encode_non_ascii(std::string_view s) {
+  std::string out;
+  out.reserve(s.size());
+  std::string wide;  // pending \X2\ run
+  auto flush = [&] {
+    if (wide.empty()) return;
+    out.append("\\X2\\").append(wide).append("\\X0\\");
+    wide.clear();
+  };
+  for (std::size_t i = 0; i < s.size();) {
+    if (static_cast<unsigned char>(s[i]) < 0x80) {
+      flush();
+      out += s[i++];
+      continue;
+    }
+    const char32_t cp = next_code_point(s, i);
+    char buf[16];
+    if (cp > 0xffff) {
+      const char32_t v = cp - 0x10000;
+      std::snprintf(buf, sizeof buf, "%04X%04X", static_cast<unsigned>(0xd800 + (v >> 10)),
+                    static_cast<unsigned>(0xdc00 + (v & 0x3ff)));
+    } else {
+      std::snprintf(buf, sizeof buf, "%04X", static_cast<unsigned>(cp));
+    }
+    wide += buf;
+  }
+  flush();
   return out;
 }
 

@@ -27,6 +27,11 @@ std::string exact_colours(std::string_view text, const std::vector<std::array<do
 /// same model would otherwise say '11'..'20' where the first said '1'..'10'.
 std::string occurrence_ids_from_one(std::string_view text);
 
+/// Encodes every non-ASCII UTF-8 character as \X2\hhhh\X0\ (ISO 10303-21 §6.4.3.3; UTF-16
+/// code units in hex). OCCT writes names and header strings as raw bytes; ASCII, including the
+/// backslashes OCCT has already doubled, passes through unchanged.
+std::string encode_non_ascii(std::string_view text);
+
 /// A Part 21 REAL: shortest round-trip decimal with a decimal point ("0.75", "1.", "1.5E-07").
 std::string part21_real(double v);
 

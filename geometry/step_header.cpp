@@ -1,7 +1,6 @@
 #include "geometry/step_header.hpp"
 
 #include <cctype>
-#include <cstdio>
 #include <cstdlib>
 #include <ctime>
 
@@ -17,51 +16,16 @@ bool is_iso_date(const std::string& s) {
   return month >= 1 && month <= 12 && day >= 1 && day <= 31;
 }
 
-// Decodes one UTF-8 sequence at s[i]; invalid bytes become U+FFFD.
-char32_t next_code_point(const std::string& s, std::size_t& i) {
-  const unsigned char c = static_cast<unsigned char>(s[i++]);
-  int extra = c >= 0xf0 ? 3 : c >= 0xe0 ? 2 : c >= 0xc0 ? 1 : 0;
-  char32_t cp = extra == 3 ? c & 0x07 : extra == 2 ? c & 0x0f : extra == 1 ? c & 0x1f : c;
-  if (c >= 0x80 && extra == 0) return 0xfffd;
-  for (; extra > 0; --extra) {
-    if (i >= s.size() || (static_cast<unsigned char>(s[i]) & 0xc0) != 0x80) return 0xfffd;
-    cp = (cp << 6) | (static_cast<unsigned char>(s[i++]) & 0x3f);
+// Header strings are single-line: control characters (a title with a tab) become spaces.
+std::string one_line(const std::string& s) {
+  std::string out = s;
+  for (char& c : out) {
+    if (static_cast<unsigned char>(c) < 0x20 || c == 0x7f) c = ' ';
   }
-  return cp;
+  return out;
 }
 
 }  // namespace
-
-std::string part21_text(const std::string& utf8) {
-  std::string out;
-  std::string wide;  // pending \X2\ run, UTF-16 hex
-  auto flush = [&] {
-    if (wide.empty()) return;
-    out.append("\\X2\\").append(wide).append("\\X0\\");
-    wide.clear();
-  };
-  for (std::size_t i = 0; i < utf8.size();) {
-    const char32_t cp = next_code_point(utf8, i);
-    if (cp >= 0x20 && cp < 0x7f) {
-      flush();
-      if (cp == '\\') out += "\\\\";
-      else out += static_cast<char>(cp);
-      continue;
-    }
-    char buf[16];
-    if (cp < 0x20 || cp == 0x7f) continue;  // control characters have no place in a header
-    if (cp > 0xffff) {
-      const char32_t v = cp - 0x10000;
-      std::snprintf(buf, sizeof buf, "%04X%04X", static_cast<unsigned>(0xd800 + (v >> 10)),
-                    static_cast<unsigned>(0xdc00 + (v & 0x3ff)));
-    } else {
-      std::snprintf(buf, sizeof buf, "%04X", static_cast<unsigned>(cp));
-    }
-    wide += buf;
-  }
-  flush();
-  return out;
-}
 
 std::string step_time_stamp(const std::string& project_date, const char* source_date_epoch) {
   if (is_iso_date(project_date)) return project_date + "T00:00:00";
@@ -85,12 +49,12 @@ StepHeader step_header(const Design& design, const std::string& file_name) {
   const Project& p = design.project;
   StepHeader h;
   h.assembly = p.number.empty() ? p.title : p.number + " " + p.title;
-  h.file_name = part21_text(file_name);
+  h.file_name = one_line(file_name);
   h.time_stamp = step_time_stamp(p.date, std::getenv("SOURCE_DATE_EPOCH"));
-  h.description = part21_text(p.revision.empty() ? p.title : p.title + ", revision " + p.revision);
-  h.author = part21_text(p.creator);
-  h.organization = part21_text(p.owner);
-  h.authorisation = part21_text(p.approver);
+  h.description = one_line(p.revision.empty() ? p.title : p.title + ", revision " + p.revision);
+  h.author = one_line(p.creator);
+  h.organization = one_line(p.owner);
+  h.authorisation = one_line(p.approver);
   h.system = std::string("bandforge ") + BANDFORGE_VERSION;
   return h;
 }

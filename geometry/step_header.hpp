@@ -7,7 +7,8 @@
 
 namespace bandforge::geom {
 
-/// Strings ready for the Part 21 header (non-ASCII characters encoded as \X2\...\X0\).
+/// Header strings as UTF-8 text (control characters replaced by spaces). OCCT quotes them;
+/// the post-write pass (step_canonical.hpp) encodes non-ASCII characters for Part 21.
 struct StepHeader {
   std::string assembly;       ///< top assembly product name: "<number> <title>"
   std::string file_name;      ///< FILE_NAME.name
@@ -25,8 +26,5 @@ StepHeader step_header(const Design& design, const std::string& file_name);
 /// SOURCE_DATE_EPOCH (seconds, UTC), else 1970-01-01T00:00:00. Never the clock, so that the
 /// same design gives the same bytes.
 std::string step_time_stamp(const std::string& project_date, const char* source_date_epoch);
-
-/// A Part 21 string body for UTF-8 text: ASCII kept, everything else as \X2\hhhh...\X0\.
-std::string part21_text(const std::string& utf8);
 
 }  // namespace bandforge::geom

@@ -129,8 +129,11 @@ void write_step(const BrakeModel& model, const Design& design, const std::string
   try {
     std::vector<std::array<double, 3>> colours;
     for (const PartInfo& p : m.infos) colours.push_back({p.colour.r, p.colour.g, p.colour.b});
-    write_file(partial, canonical_step(
-                            occurrence_ids_from_one(exact_colours(read_file(partial), colours))));
+    std::string text = read_file(partial);
+    text = encode_non_ascii(text);          // names and header: Part 21 \X2\ strings
+    text = exact_colours(text, colours);    // the sRGB values chosen, not float round-off
+    text = occurrence_ids_from_one(text);   // as a first export in a fresh process
+    write_file(partial, canonical_step(text));  // entity order from content, not addresses
   } catch (...) {
     std::remove(partial.c_str());
     throw;

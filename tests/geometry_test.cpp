@@ -398,6 +398,20 @@ TEST(BuildErrors, LeverShorterThanItsHolesNamesTheLever) {
   }
 }
 
+TEST(BuildErrors, AnOcctFailureBecomesABuildErrorSayingWhatWasBuilt) {
+  Design d = read_design_file(kExample);
+  const Solution s = solve(d);
+  // A band of zero thickness (never accepted by the reader): its eye arcs would start and end
+  // at the same point, and OCCT's arc constructor throws.
+  d.band.thickness = 0;
+  try {
+    build_brake(d, s, {});
+    FAIL() << "accepted";
+  } catch (const BuildError& e) {
+    EXPECT_EQ(std::string(e.what()).rfind("while building the band: ", 0), 0u) << e.what();
+  }
+}
+
 TEST(BuildErrors, ConceptDesignHasNoGeometry) {
   const Design d = read_design_file(std::string(BANDFORGE_SOURCE_DIR) +
                                     "/examples/concept-differential.toml");

@@ -23,6 +23,7 @@
 #include <Interface_Static.hxx>
 #include <Quantity_Color.hxx>
 #include <STEPCAFControl_Reader.hxx>
+#include <STEPControl_Controller.hxx>
 #include <STEPControl_Reader.hxx>
 #include <TColStd_SequenceOfAsciiString.hxx>
 #include <TDF_LabelSequence.hxx>
@@ -221,14 +222,18 @@ TEST(StepExport, FileTextCarriesHeaderSchemaUnitsAndExactColours) {
 TEST(StepExport, WritingLeavesStdoutAndOcctSettingsAlone) {
   Design d = read_design_file(kExample);
   BrakeModel m = build_brake(d, solve(d), {});
-  const std::string schema = Interface_Static::CVal("write.step.schema");
+  // A host program that chose another schema keeps it after our export (and we still write AP214).
+  STEPControl_Controller::Init();
+  const std::string before = Interface_Static::CVal("write.step.schema");
+  ASSERT_TRUE(Interface_Static::SetCVal("write.step.schema", "AP203"));
   const fs::path file = fresh_dir("quiet") / "q.step";
   testing::internal::CaptureStdout();
   write_step(m, d, file.string());
   const std::string printed = testing::internal::GetCapturedStdout();
   EXPECT_EQ(printed, "");
-  EXPECT_EQ(schema, Interface_Static::CVal("write.step.schema"));
-  EXPECT_TRUE(fs::exists(file));
+  EXPECT_STREQ(Interface_Static::CVal("write.step.schema"), "AP203");
+  Interface_Static::SetCVal("write.step.schema", before.c_str());
+  EXPECT_NE(slurp(file).find("AUTOMOTIVE_DESIGN"), std::string::npos);
   EXPECT_FALSE(fs::exists(file.string() + ".partial"));
 }
 
@@ -386,11 +391,40 @@ TEST(StepHeader, TimeStampNeverComesFromTheClock) {
   EXPECT_EQ(step_time_stamp("", "soon"), "1970-01-01T00:00:00");
 }
 
-TEST(StepHeader, NonAsciiTextIsEncodedForPart21) {
+TEST(StepCanonical, NonAsciiTextIsEncodedForPart21) {
   // ISO 10303-21 §6.4.3.3: \X2\ followed by UTF-16 code units in hex, ended by \X0\.
-  EXPECT_EQ(part21_text("Ø400 drum"), "\\X2\\00D8\\X0\\400 drum");
-  EXPECT_EQ(part21_text("a\\b"), "a\\\\b");
-  EXPECT_EQ(part21_text("plain"), "plain");
+  EXPECT_EQ(encode_non_ascii("'Ø400 drum'"), "'\\X2\\00D8\\X0\\400 drum'");
+  // A run of non-ASCII characters is one group; ASCII (an escaped backslash too) is untouched.
+  EXPECT_EQ(encode_non_ascii("Mü—x \\\\"), "M\\X2\\00FC2014\\X0\\x \\\\");
+  // Outside the basic plane: a surrogate pair.
+  EXPECT_EQ(encode_non_ascii("🔧"), "\\X2\\D83DDD27\\X0\\");
+}
+
+TEST(StepExport, NonAsciiTitleReadsBack) {
+  std::string text = slurp(kExample);
+  const std::string from = "title = \"Bin hoist holding brake\"";
+  ASSERT_NE(text.find(from), std::string::npos);
+  text.replace(text.find(from), from.size(), "title = \"Hubwerk-Bremse Ø400 für Müller's\"");
+  const Design d = read_design_text(text, "umlaut.toml");
+  const BrakeModel m = build_brake(d, solve(d), {});
+  const fs::path file = fresh_dir("umlaut") / "u.step";
+  write_step(m, d, file.string());
+  const std::string written = slurp(file);
+  for (unsigned char c : written) ASSERT_LT(c, 0x80) << "raw non-ASCII byte in the file";
+  EXPECT_NE(written.find("Hubwerk-Bremse \\X2\\00D8\\X0\\400 f\\X2\\00FC\\X0\\r M\\X2\\00FC\\X0\\ller''s"),
+            std::string::npos);
+  Handle(TDocStd_Document) doc;
+  XCAFApp_Application::GetApplication()->NewDocument("MDTV-XCAF", doc);
+  STEPCAFControl_Reader reader;
+  ASSERT_EQ(reader.ReadFile(file.string().c_str()), IFSelect_RetDone);
+  ASSERT_TRUE(reader.Transfer(doc));
+  TDF_LabelSequence roots;
+  XCAFDoc_DocumentTool::ShapeTool(doc->Main())->GetFreeShapes(roots);
+  ASSERT_EQ(roots.Length(), 1);
+  Handle(TDataStd_Name) n;
+  ASSERT_TRUE(roots(1).FindAttribute(TDataStd_Name::GetID(), n));
+  EXPECT_TRUE(n->Get() == TCollection_ExtendedString(
+                              "KFW-2207-BR Hubwerk-Bremse Ø400 für Müller's", Standard_True));
 }
 
 }  // namespace

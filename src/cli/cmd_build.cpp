@@ -15,10 +15,14 @@
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
+#include "src/units.hpp"
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
 #include "geometry/brake_model.hpp"
 #include "geometry/flat_patterns.hpp"
+#endif
+#ifdef BANDFORGE_HAVE_DRAWING
+#include "drawing/drawing.hpp"
 #endif
 
 namespace bandforge::cli {
@@ -32,6 +36,7 @@ struct BuildCommand {
   bool released = false;
   bool json = false;
   std::string dxf_version = "r2000";  ///< flat patterns: "r2000" (AC1015) or "r12" (AC1009)
+  std::string units = "si";           ///< units on the PDF drawing: "si" or "us"
 };
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
@@ -199,10 +204,21 @@ void run_build(const BuildCommand& cmd) {
   const std::string stem = file_stem(design.project.number);
   Staging staging(cmd.out_dir, stem);
   geom::write_step(model, design, staging.path(stem + ".step"));
-  // PDF drawing (issue 4, drawing/): with BANDFORGE_HAVE_DRAWING, write
-  //   drawing::write_drawing(design, solution, &applied, &released_model, units,
-  //                          staging.path(stem + ".pdf"));
-  // where the drawing needs the applied model and the released one for the phantom lever.
+#ifdef BANDFORGE_HAVE_DRAWING
+  {
+    // The drawing shows the applied state with the released lever as a phantom line, so it
+    // needs both states; the one built only for the drawing skips the checks unless it is the
+    // applied state (the parts list takes its masses).
+    geom::BuildOptions other;
+    other.released = !cmd.released;
+    other.checks = cmd.released;
+    const geom::BrakeModel second = geom::build_brake(design, solution, other);
+    drawing::write_drawing(design, solution, cmd.released ? &second : &model,
+                           cmd.released ? &model : &second,
+                           cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
+                           staging.path(stem + ".pdf"));
+  }
+#endif
   const geom::DxfVersion dxf =
       cmd.dxf_version == "r12" ? geom::DxfVersion::r12 : geom::DxfVersion::r2000;
   geom::write_fab_files(fab, dxf, [&](const std::string& f) { return staging.path("fab/" + f); });
@@ -241,6 +257,8 @@ void setup_build(CLI::App& app) {
                   "DXF of the flat patterns in OUTDIR/fab/: r2000 (AC1015, default) or r12 (AC1009, "
                   "no $INSUNITS)")
       ->check(CLI::IsMember({"r2000", "r12"}));
+  sub->add_option("--units", cmd->units, "units on the PDF drawing: si (mm, N, MPa) or us (in, lbf, psi)")
+      ->check(CLI::IsMember({"si", "us"}));
   sub->callback([cmd] { run_build(*cmd); });
 }
 

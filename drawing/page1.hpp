@@ -1,0 +1,64 @@
+// Internal to the assembly drawing (page 1): what its drawing steps share, and the steps.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "drawing/annotate.hpp"
+#include "drawing/assembly_sheet.hpp"
+#include "drawing/views.hpp"
+
+namespace bandforge::drawing {
+
+constexpr double kMmPerM = 1000.0;  // the solids are in mm, the design in m
+constexpr double kLevel = 7.0;      // spacing of stacked dimension lines [mm]
+
+/// Pivot, handle and pin centres in model millimetres.
+struct Features {
+  Pt pivot, handle, a, b;
+};
+Features features(const Design& d);
+
+/// Horizontal coordinate dimensions go on the side of the drum where the pins are; vertical
+/// ones on the side away from the handle.
+bool dims_below(const Features& f);
+bool dims_left(const Features& f);
+
+/// Sorted distinct non-zero values (coordinates that need a dimension).
+std::vector<double> distinct(std::vector<double> v);
+
+Pt polar(Pt c, double r, double a);
+/// Candidate positions on rings around `p`, from radius r0 to r1 [mm].
+std::vector<Pt> around(Pt p, double r0, double r1);
+
+/// Everything the steps of page 1 share.
+struct Page1 {
+  Canvas& c;
+  Occupancy& occ;
+  std::vector<std::string>& notes;  ///< annotations moved or dropped, for the notes
+  const Design& d;
+  const Solution& s;
+  const AssemblyPlan& plan;
+  UnitSystem u;
+  Mapper front, side;
+  double k = 1;  ///< sheet scale
+  // Section sizes [model mm].
+  double r = 0, t_l = 0, t = 0, b = 0, w = 0, band_outer = 0;
+  Pt centre;           ///< drum centre on the sheet
+  double drum_cl = 0;  ///< half-length of the drum's centre lines [sheet mm]
+  double pin_cl = 0;   ///< half-length of a pin's centre lines [sheet mm]
+  Features f;
+  Box fv;  ///< front view geometry [sheet mm]
+
+  /// Places a linear dimension, or records in the notes that it had no room.
+  void dimension(const LinearDim& dim, const std::string& what);
+};
+
+void draw_centre_lines(Page1& p);
+void draw_band_detail(Page1& p);
+void dimension_front_view(Page1& p);
+void dimension_side_view(Page1& p);
+void draw_rotation_and_ends(Page1& p);
+void draw_balloons(Page1& p, const geom::BrakeModel& model);
+
+}  // namespace bandforge::drawing
