@@ -44,11 +44,11 @@ struct Page1 {
   double k = 1;  ///< sheet scale
   // Section sizes [model mm].
   double r = 0, t_l = 0, t = 0, b = 0, w = 0, band_outer = 0;
-  Pt centre;           ///< drum centre on the sheet
+  Pt centre{};         ///< drum centre on the sheet
   double drum_cl = 0;  ///< half-length of the drum's centre lines [sheet mm]
   double pin_cl = 0;   ///< half-length of a pin's centre lines [sheet mm]
-  Features f;
-  Box fv;  ///< front view geometry [sheet mm]
+  Features f{};
+  Box fv{};  ///< front view geometry [sheet mm]
 
   /// Places a linear dimension, or records in the notes that it had no room.
   void dimension(const LinearDim& dim, const std::string& what);

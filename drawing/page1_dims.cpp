@@ -144,7 +144,9 @@ void perpendicular_arms(Page1& p) {
       dd.levels.push_back(dot(dd.p1, n) + j);
       dd.levels.push_back(dot(dd.p1, n) - j);
     }
-    dd.text = "(" + dim_length(std::abs(e.arm), p.u) + ")";
+    dd.text = dim_length(std::abs(e.arm), p.u);
+    dd.text.insert(0, "(");  // a reference dimension; built in place: GCC 12 -Wrestrict false positive
+    dd.text += ")";
     p.dimension(dd, std::string("perpendicular arm of run ") + (i == 0 ? "A" : "B"));
   }
 }

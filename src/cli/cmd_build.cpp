@@ -2,7 +2,11 @@
 // assembly (+ the PDF drawing and the fab/ flat patterns when those land).
 // Outputs are written into a staging directory inside OUTDIR and moved into place only when
 // every step has succeeded, so a failed build leaves no partial files behind.
+#include <unistd.h>
+
+#include <cerrno>
 #include <cstdio>
+#include <cstring>
 #include <filesystem>
 #include <iostream>
 #include <memory>
@@ -230,6 +234,21 @@ void run_build(const BuildCommand& cmd) {
   } else {
     print_text(design, model, cmd.released, files);
   }
+}
+
+#elif defined(BANDFORGE_CAD_EXECUTABLE)
+
+// OpenCASCADE's ~60 shared libraries take about 40 ms to load, three times a whole `solve`.
+// So the `bandforge` that users run links only the core, and hands `build` (its arguments already
+// checked by the parse above) to its sibling executable, which links geometry/ and drawing/.
+void run_build(const BuildCommand&) {
+  std::error_code ec;
+  const fs::path self = fs::read_symlink("/proc/self/exe", ec);
+  const fs::path cad = (ec ? fs::path(".") : self.parent_path()) / BANDFORGE_CAD_EXECUTABLE;
+  std::fflush(nullptr);
+  ::execv(cad.c_str(), original_argv());
+  throw Error(Exit::internal, "build: cannot start " + cad.string() + ": " + std::strerror(errno) +
+                                  " (it is built and installed next to bandforge)");
 }
 
 #else

@@ -7,6 +7,10 @@
 
 namespace bandforge::cli {
 
+/// The command line as given to main(), kept for handing `build` to bandforge-cad.
+void remember_argv(char** argv);
+char** original_argv();
+
 void setup_solve(CLI::App& app);
 void setup_new(CLI::App& app);
 void setup_materials(CLI::App& app);

@@ -6,8 +6,17 @@
 #include "src/cli/commands.hpp"
 #include "src/errors.hpp"
 
+namespace bandforge::cli {
+namespace {
+char** g_argv = nullptr;
+}  // namespace
+void remember_argv(char** argv) { g_argv = argv; }
+char** original_argv() { return g_argv; }
+}  // namespace bandforge::cli
+
 int main(int argc, char** argv) {
   using bandforge::Exit;
+  bandforge::cli::remember_argv(argv);
   CLI::App app{
       "bandforge: band-brake design from one design file: mechanics, solids (STEP), drawing (PDF)\n"
       "and flat patterns (DXF). Results are a design aid: have them checked against the applicable\n"
