@@ -44,6 +44,10 @@ const HPDF_UINT16 kPhantom[] = {17, 3, 1, 3, 1, 3};
 }  // namespace
 
 struct Canvas::Impl {
+  // Owned here, not by Canvas: a constructor that throws half-way still frees the document.
+  ~Impl() {
+    if (doc) HPDF_Free(doc);
+  }
   ErrorState err;
   HPDF_Doc doc = nullptr;
   HPDF_Page page = nullptr;
@@ -86,9 +90,7 @@ Canvas::Canvas() : impl_(std::make_unique<Impl>()) {
   m.font = m.check_handle(HPDF_GetFont(m.doc, name, "UTF-8"), "selecting the font");
 }
 
-Canvas::~Canvas() {
-  if (impl_ && impl_->doc) HPDF_Free(impl_->doc);
-}
+Canvas::~Canvas() = default;
 
 void Canvas::set_title(const std::string& title, const std::string& author,
                        const std::string& subject) {

@@ -3,9 +3,9 @@
 #include <cerrno>
 #include <cstdio>
 #include <cstring>
-#include <optional>
 #include <filesystem>
 #include <fstream>
+#include <optional>
 
 #include "drawing/assembly_sheet.hpp"
 #include "drawing/calc_sheet.hpp"
@@ -18,8 +18,16 @@
 namespace bandforge::drawing {
 namespace {
 
+// The title block's units field: dimensions; forces, torques, stresses.
 std::string units_text(UnitSystem u) {
-  return u == UnitSystem::si ? "mm; N, N·m, MPa" : "in; lbf, lbf·ft, psi";
+  std::string s = display_unit(Quantity::length, u);
+  s += "; ";
+  s += display_unit(Quantity::force, u);
+  s += ", ";
+  s += display_unit(Quantity::torque, u);
+  s += ", ";
+  s += display_unit(Quantity::stress, u);
+  return s;
 }
 
 TitleData title_data(const Design& d, UnitSystem u) {
@@ -48,10 +56,6 @@ std::vector<Box> calc_columns(const SheetSize& s, const Box& caution) {
   const double w = (f.width() - 3 * m) / 2;
   return {{f.x0 + m, f.y0 + m, f.x0 + m + w, top}, {f.x0 + 2 * m + w, bottom, f.x1 - m, top}};
 }
-
-}  // namespace
-
-namespace {
 
 struct Planned {
   SheetPlan plan;
@@ -90,12 +94,13 @@ Planned plan_all(const Canvas& c, const Design& design, const Solution& solution
 
 }  // namespace
 
-SheetPlan plan_drawing(const Design& design, const Solution& solution, const geom::BrakeModel* model) {
+SheetPlan plan_drawing(const Design& design, const Solution& solution, const geom::BrakeModel* model,
+                       UnitSystem units) {
   const Canvas measure;  // text widths only
   Planned p = plan_all(measure, design, solution, model);
   const Box caution = caution_box(measure, sheet_size(design.drawing.sheet));
   int pages = 0;
-  flow(measure, calculation_blocks(design, solution, UnitSystem::si),
+  flow(measure, calculation_blocks(design, solution, units),
        calc_columns(sheet_size(design.drawing.sheet), caution), &pages);
   p.plan.pages = (p.plan.assembly ? 1 : 0) + pages;
   return p.plan;

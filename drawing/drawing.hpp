@@ -36,7 +36,7 @@ struct SheetPlan {
 /// otherwise A3 at the largest ISO 5455 scale at which the views fit. Throws BuildError naming
 /// the sheet and the scales tried when nothing fits. `model` may be null (concept design).
 SheetPlan plan_drawing(const Design& design, const Solution& solution,
-                       const geom::BrakeModel* model);
+                       const geom::BrakeModel* model, UnitSystem units = UnitSystem::si);
 
 /// Writes the PDF to `path` (through a temporary file renamed when complete). `model` is the
 /// applied-state assembly (null for a concept design: calculation sheet only); `released` the

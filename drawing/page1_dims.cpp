@@ -4,6 +4,7 @@
 // layout that the solids were built from.
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <map>
 #include <numbers>
 
@@ -144,9 +145,11 @@ void perpendicular_arms(Page1& p) {
       dd.levels.push_back(dot(dd.p1, n) + j);
       dd.levels.push_back(dot(dd.p1, n) - j);
     }
-    dd.text = dim_length(std::abs(e.arm), p.u);
-    dd.text.insert(0, "(");  // a reference dimension; built in place: GCC 12 -Wrestrict false positive
-    dd.text += ")";
+    // A reference dimension, in parentheses (formatted, not concatenated: GCC 12 reports a
+    // false -Wrestrict on "(" + std::string here).
+    char text[48];
+    std::snprintf(text, sizeof text, "(%s)", dim_length(std::abs(e.arm), p.u).c_str());
+    dd.text = text;
     p.dimension(dd, std::string("perpendicular arm of run ") + (i == 0 ? "A" : "B"));
   }
 }

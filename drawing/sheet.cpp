@@ -94,17 +94,18 @@ void draw_frame(Canvas& c, const SheetSize& s) {
 }
 
 void draw_first_angle_symbol(Canvas& c, Box cell) {
-  // ISO 5456-2 first-angle symbol: a truncated cone seen from the side (left) and its view from
-  // the left placed to the right of it, two concentric circles.
-  const double h = std::min(cell.height() * 0.55, cell.width() * 0.22);
+  // ISO 5456-2 first-angle symbol: a truncated cone seen from the side, small end on the left,
+  // and to its right the view from the left (first angle places it there): two concentric
+  // circles, the small end face in front of the large one.
+  const double big = std::min(cell.height() * 0.42, cell.width() * 0.16);  // large end radius
+  const double small = big / 2;
+  const double length = 2 * big, gap = 0.8 * big;
   const double cy = (cell.y0 + cell.y1) / 2;
-  const double total = 2 * h + 0.6 * h + 2 * h;
-  const double x0 = (cell.x0 + cell.x1) / 2 - total / 2;
+  const double x0 = (cell.x0 + cell.x1) / 2 - (length + gap + 2 * big) / 2;
   c.pen(Pen::wide);
-  const double small = h / 2, big = h;  // half-heights of the cone's ends
-  c.polyline({{x0, cy - small / 1}, {x0 + 2 * h, cy - big}, {x0 + 2 * h, cy + big},
-              {x0, cy + small / 1}, {x0, cy - small / 1}});
-  const Pt cc{x0 + 2.6 * h + h, cy};
+  c.polyline({{x0, cy - small}, {x0 + length, cy - big}, {x0 + length, cy + big}, {x0, cy + small},
+              {x0, cy - small}});
+  const Pt cc{x0 + length + gap + big, cy};
   c.circle(cc, big);
   c.circle(cc, small);
   c.pen(Pen::centre);

@@ -67,7 +67,7 @@ Box title_block_box(const SheetSize& s);
 void draw_frame(Canvas& c, const SheetSize& s);
 void draw_title_block(Canvas& c, const SheetSize& s, const TitleData& t);
 
-/// The ISO 5456-2 first-angle projection symbol in a box (h = its letter height).
+/// The ISO 5456-2 first-angle projection symbol, centred in `cell`.
 void draw_first_angle_symbol(Canvas& c, Box cell);
 
 /// The caution every sheet carries (README "Safety").

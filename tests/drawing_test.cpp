@@ -315,6 +315,57 @@ TEST(DrawingText, UsUnitsGiveInchesAndPoundForce) {
   EXPECT_NE(page2.find("psi"), std::string::npos);
 }
 
+// Words on a page with the box of their capitals and digits. pdftotext -bbox gives the font's
+// em box, taller than the ink; DejaVu Sans metrics (from the font's own tables): ascent 0.928,
+// descent 0.235, capital height 0.729 em.
+struct Word {
+  double x0, y0, x1, y1;
+  std::string text;
+};
+
+std::vector<Word> cap_boxes(const fs::path& pdf, int page) {
+  const std::string html =
+      run("pdftotext -bbox -f " + std::to_string(page) + " -l " + std::to_string(page) + " " + quote(pdf) + " -").out;
+  const std::regex word(R"re(<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)</word>)re");
+  const double asc = 0.928, desc = 0.235, cap = 0.729, em = asc + desc;
+  std::vector<Word> out;
+  for (auto it = std::sregex_iterator(html.begin(), html.end(), word); it != std::sregex_iterator(); ++it) {
+    double x0 = std::stod((*it)[1]), y0 = std::stod((*it)[2]), x1 = std::stod((*it)[3]), y1 = std::stod((*it)[4]);
+    const std::string t = (*it)[5];
+    if (t.size() >= 3 && (y1 - y0) > 1.5 * (x1 - x0)) {  // set vertically: the em box runs along x
+      const double h = x1 - x0;
+      x0 += desc / em * h;
+      x1 = x0 + cap / em * h;
+    } else {
+      const double h = y1 - y0, base = y1 - desc / em * h;
+      y0 = base - cap / em * h;
+      y1 = base;
+    }
+    out.push_back({x0, y0, x1, y1, t});
+  }
+  return out;
+}
+
+TEST(DrawingText, NoTwoWordsOverlapOnTheAssemblySheet) {
+  // Dimension values, labels, balloons, tables and the title block: no text over other text.
+  const auto us = draw(kExample, "overlap-us.pdf", UnitSystem::us);
+  const auto a4 = draw(kExample, "overlap-a4.pdf", UnitSystem::si, "A4");
+  for (const fs::path& pdf : {example().pdf, us->pdf, a4->pdf}) {
+    SCOPED_TRACE(pdf.string());
+    const auto words = cap_boxes(pdf, 1);
+    ASSERT_GT(words.size(), 100u);
+    for (size_t i = 0; i < words.size(); ++i) {
+      for (size_t j = i + 1; j < words.size(); ++j) {
+        const Word& a = words[i];
+        const Word& b = words[j];
+        const double ix = std::min(a.x1, b.x1) - std::max(a.x0, b.x0);
+        const double iy = std::min(a.y1, b.y1) - std::max(a.y0, b.y0);
+        EXPECT_FALSE(ix > 0.3 && iy > 0.3) << "'" << a.text << "' overlaps '" << b.text << "'";
+      }
+    }
+  }
+}
+
 // ---- rendering ------------------------------------------------------------------------------
 
 // A greyscale image from pdftoppm (-gray: binary PGM).

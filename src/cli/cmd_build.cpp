@@ -194,11 +194,34 @@ nlohmann::json to_json(const Design& design, const geom::BrakeModel& model, bool
 
 void run_build(const BuildCommand& cmd) {
   const Design design = read_design_file(cmd.design);
-  if (design.concept_arms.present) {
-    design_fail(design, "concept", "",
-                "a [concept] design has no pin coordinates; build needs end_a/end_b/pivot/handle");
-  }
   const Solution solution = solve(design);
+  if (design.concept_arms.present) {
+    // No pin coordinates, so no solids, STEP or flat patterns: the calculation sheet only.
+#ifdef BANDFORGE_HAVE_DRAWING
+    const std::string stem = file_stem(design.project.number);
+    Staging staging(cmd.out_dir, stem);
+    drawing::write_drawing(design, solution, nullptr, nullptr,
+                           cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
+                           staging.path(stem + ".pdf"));
+    const std::vector<std::string> files = staging.commit();
+    if (cmd.json) {
+      const nlohmann::json j{
+          {"project", {{"number", design.project.number}, {"title", design.project.title}}},
+          {"state", "concept"},
+          {"files", files}};
+      std::cout << j.dump(2) << '\n';
+    } else {
+      std::cout << "bandforge build: " << design.project.number << "  " << design.project.title
+                << " ([concept] design: calculation sheet only, no solids)\n";
+      for (const auto& f : files) std::cout << "wrote " << f << '\n';
+    }
+    return;
+#else
+    design_fail(design, "concept", "",
+                "a [concept] design has no pin coordinates; this bandforge has no drawing "
+                "library to write its calculation sheet");
+#endif
+  }
   geom::BuildOptions options;
   options.released = cmd.released;
   const geom::BrakeModel model = geom::build_brake(design, solution, options);
