@@ -410,7 +410,7 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   m.intended = intended;
   if (!options.checks) return BrakeModel(std::move(impl));
   try {
-    run_checks(m, intended);
+    run_checks(m, intended, options.interference);
   } catch (const Standard_Failure& e) {
     throw BuildError(std::string("while checking the assembly: ") + e.GetMessageString());
   }

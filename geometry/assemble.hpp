@@ -10,7 +10,7 @@ using IntendedContacts = std::set<std::pair<std::string, std::string>>;
 
 /// Validity, mass properties and pairwise interference/clearance of every instance; fills
 /// m.valid, m.infos[*].volume/mass/centroid and m.contacts.
-void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended);
+void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool interference);
 
 /// Throws BuildError naming the first invalid solid, or every failing pair of parts.
 void reject_failures(const BrakeModel::Impl& m);

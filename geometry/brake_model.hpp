@@ -58,6 +58,9 @@ struct BuildOptions {
   /// Run the checks (validity, mass properties, interference). Only the benchmark turns this
   /// off, to time the solids alone; without checks parts() has no volumes or masses.
   bool checks = true;
+  /// With checks: also the pairwise interference and clearance checks. false keeps validity
+  /// and mass properties only (the drawing's own copy of a model already checked).
+  bool interference = true;
 };
 
 class BrakeModel {

@@ -61,7 +61,7 @@ double common_volume(const TopoDS_Shape& a, const TopoDS_Shape& b) {
 
 }  // namespace
 
-void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended) {
+void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool interference) {
   // One thread on purpose: on two shared cores, OCCT's thread pool made the checks slower and
   // less predictable (measured, geometry/README.md), and sequential checks need no care about
   // OCCT's thread safety.
@@ -85,6 +85,7 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended) {
     m.solid_ok[i] = solid_count(s) == 1 && BRepCheck_Analyzer(s).IsValid() && info.volume > 0;
     m.valid = m.valid && m.solid_ok[i];
   }
+  if (!interference) return;
   const std::vector<BrakeModel::Impl::Placed> placed = m.placed();
 
   // Pairs whose bounding boxes come within the clearance of each other. Intended contacts must

@@ -313,7 +313,7 @@ TEST(Checks, AnOversizePinInItsHoleIsMeasuredAsOverlap) {
   const double rho = d_pin / 2, len = 100;
   m.parts[pin].shape =
       BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(0, 0, -len / 2), gp_Dir(0, 0, 1)), rho + 0.1, len).Shape();
-  run_checks(m, m.intended);
+  run_checks(m, m.intended, /*interference=*/true);
   bool seen = false;
   for (const ContactCheck& c : m.contacts) {
     if (c.part_a == "LEVER" && c.part_b == "PIN-B") {

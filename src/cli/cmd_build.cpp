@@ -8,6 +8,7 @@
 #include <cstdio>
 #include <cstring>
 #include <filesystem>
+#include <future>
 #include <iostream>
 #include <memory>
 #include <string>
@@ -222,29 +223,36 @@ void run_build(const BuildCommand& cmd) {
                 "library to write its calculation sheet");
 #endif
   }
+  const std::string stem = file_stem(design.project.number);
+  Staging staging(cmd.out_dir, stem);
+  // Staged names are taken here, on one thread, in the order the files are listed.
+  const std::string step_path = staging.path(stem + ".step");
+#ifdef BANDFORGE_HAVE_DRAWING
+  const std::string pdf_path = staging.path(stem + ".pdf");
+  // The drawing runs on the second core while this thread builds, checks and exports the model:
+  // it works on its own copies of the solids (no OCCT shape is shared between the threads).
+  // It shows the applied state with the released lever as a phantom line, so it needs both
+  // states; its copies skip the interference checks, which the checked model below runs.
+  std::future<void> drawing_done = std::async(std::launch::async, [&] {
+    geom::BuildOptions applied;
+    applied.interference = false;
+    geom::BuildOptions released = applied;
+    released.released = true;
+    const geom::BrakeModel shown = geom::build_brake(design, solution, applied);
+    const geom::BrakeModel phantom = geom::build_brake(design, solution, released);
+    drawing::write_drawing(design, solution, &shown, &phantom,
+                           cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
+                           pdf_path);
+  });
+#endif
   geom::BuildOptions options;
   options.released = cmd.released;
   const geom::BrakeModel model = geom::build_brake(design, solution, options);
   // Flattened before anything is written: a part that cannot be flattened leaves no files.
   const geom::FabPack fab = geom::make_fab_pack(design, solution, model);
-
-  const std::string stem = file_stem(design.project.number);
-  Staging staging(cmd.out_dir, stem);
-  geom::write_step(model, design, staging.path(stem + ".step"));
+  geom::write_step(model, design, step_path);
 #ifdef BANDFORGE_HAVE_DRAWING
-  {
-    // The drawing shows the applied state with the released lever as a phantom line, so it
-    // needs both states; the one built only for the drawing skips the checks unless it is the
-    // applied state (the parts list takes its masses).
-    geom::BuildOptions other;
-    other.released = !cmd.released;
-    other.checks = cmd.released;
-    const geom::BrakeModel second = geom::build_brake(design, solution, other);
-    drawing::write_drawing(design, solution, cmd.released ? &second : &model,
-                           cmd.released ? &model : &second,
-                           cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
-                           staging.path(stem + ".pdf"));
-  }
+  drawing_done.get();  // rethrows the drawing's error, if any
 #endif
   const geom::DxfVersion dxf =
       cmd.dxf_version == "r12" ? geom::DxfVersion::r12 : geom::DxfVersion::r2000;

@@ -44,7 +44,7 @@ void BM_Checks(benchmark::State& state) {
   o.checks = false;
   geom::BrakeModel model = geom::build_brake(example(), solution(), o);
   for (auto _ : state) {
-    geom::run_checks(model.impl(), model.impl().intended);
+    geom::run_checks(model.impl(), model.impl().intended, /*interference=*/true);
     benchmark::DoNotOptimize(model.contacts().size());
   }
 }
