@@ -2,7 +2,9 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <filesystem>
+#include <functional>
 #include <optional>
 #include <numbers>
 
@@ -58,30 +60,29 @@ Block paragraphs(std::vector<std::string> items, bool numbered) {
   return b;
 }
 
-Block table_block(Table t) {
+// How a table takes the column's width at layout time (text is measured there).
+using TableFit = std::function<Table(const Canvas&, Table, double width)>;
+
+Table proportional(const Canvas&, Table t, double width) {
+  fit_width(t, width);
+  return t;
+}
+
+Block table_block(Table t, TableFit fit = proportional) {
   Block b;
-  b.height = [t](const Canvas& c, double w) {
-    Table f = t;
-    fit_width(f, w);
-    return table_height(c, f);
-  };
-  b.draw = [t](Canvas& c, Pt p, double w) {
-    Table f = t;
-    fit_width(f, w);
-    draw_table(c, f, p);
-  };
+  b.height = [t, fit](const Canvas& c, double w) { return table_height(c, fit(c, t, w)); };
+  b.draw = [t, fit](Canvas& c, Pt p, double w) { draw_table(c, fit(c, t, w), p); };
   // Split between rows, the header repeated on the continuation; at least two rows each side.
-  b.split = [t](const Canvas& c, double w, double avail) -> std::optional<std::pair<Block, Block>> {
-    Table f = t;
-    fit_width(f, w);
+  b.split = [t, fit](const Canvas& c, double w, double avail) -> std::optional<std::pair<Block, Block>> {
+    const Table f = fit(c, t, w);
     const size_t body = f.rows.size() - (f.header ? 1 : 0);
     size_t n = rows_fitting(c, f, avail);
     if (n >= body || body < 4) return std::nullopt;
     n = std::min(n, body - 2);  // never leave a lone row for the continuation
     if (n < 2) return std::nullopt;
     const size_t first = f.header ? 1 : 0;
-    return std::make_pair(table_block(table_rows(t, first, first + n)),
-                          table_block(table_rows(t, first + n, t.rows.size())));
+    return std::make_pair(table_block(table_rows(t, first, first + n), fit),
+                          table_block(table_rows(t, first + n, t.rows.size()), fit));
   };
   return b;
 }
@@ -563,6 +564,139 @@ Block plot_block(Plot plot) {
   return b;
 }
 
+// ---- cut list -------------------------------------------------------------------------------
+// The rows of fab/cutlist.csv as they are (geom::cut_list), sizes in the display unit. Columns are
+// sized to their content at layout time and the note takes what is left, shortened to three lines.
+
+constexpr size_t kCutColumns = 9;
+constexpr size_t kNoteColumn = 8;
+constexpr size_t kNoteLines = 3;
+constexpr double kMinNoteWidth = 30;  // [mm] below it the other columns give way (they wrap)
+
+std::string cut_length(double mm, UnitSystem u) { return dim_length(mm / 1000.0, u); }
+
+std::string cut_mass(double kg, UnitSystem u) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.3f", to_display(kg, Quantity::mass, u));  // grams, as the CSV
+  return buf;
+}
+
+Table cut_list_table(const std::vector<geom::CutListRow>& rows, UnitSystem u) {
+  const std::string L = " [" + display_unit(Quantity::length, u) + "]";
+  const std::string M = " [" + display_unit(Quantity::mass, u) + "]";
+  Table t;
+  t.widths.assign(kCutColumns, 1.0);  // measured in cut_list_fit
+  t.align = {Align::left,  Align::left,  Align::left,  Align::right, Align::right,
+             Align::right, Align::right, Align::right, Align::left};
+  t.fail_marker.clear();  // part names and notes are not check results
+  t.rows.push_back({"Part", "Material", "Stock", "Thick-\nness" + L, "Blank length × width" + L, "Qty",
+                    "Mass each" + M, "Mass total" + M, "Note (shortened)"});
+  double total = 0;
+  for (const geom::CutListRow& r : rows) {
+    // Round bar: the thickness field is the bar diameter and the blank is the sawn length.
+    const bool bar = r.stock == "round bar";
+    t.rows.push_back({r.part, r.material, r.stock, (bar ? "Ø" : "") + cut_length(r.thickness, u),
+                      bar ? cut_length(r.length, u)
+                          : cut_length(r.length, u) + " × " + cut_length(r.width, u),
+                      std::to_string(r.quantity), cut_mass(r.mass, u),
+                      cut_mass(r.mass * r.quantity, u), r.note});
+    total += r.mass * r.quantity;
+  }
+  t.rows.push_back({"Total", "", "", "", "", "", "", cut_mass(total, u), ""});
+  return t;
+}
+
+// `text` cut after a whole word and ended with " …" when wider than `width` (a number is never
+// cut in its digits); a first word too wide on its own is cut at a character.
+std::string ellipsize_words(const Canvas& c, const std::string& text, double h, double width) {
+  if (c.text_width(text, h) <= width) return text;
+  for (size_t end = text.rfind(' '); end != std::string::npos && end > 0; end = text.rfind(' ', end - 1)) {
+    std::string head = text.substr(0, end);
+    while (!head.empty() && (head.back() == ' ' || head.back() == ',' || head.back() == ':')) head.pop_back();
+    if (!head.empty() && c.text_width(head + " …", h) <= width) return head + " …";
+  }
+  return ellipsize(c, text, h, width);
+}
+
+// A note in at most three lines: its first clause ("; "-separated: the developed length and its
+// allowances) wrapped over up to two, the rest (what the blank becomes) on the last; each part
+// cut after a whole word with "…". A note of one clause may use all three lines.
+std::string shortened_note(const Canvas& c, const std::string& note, double h, double width) {
+  const size_t semi = note.find("; ");
+  const std::string first = note.substr(0, semi);
+  const std::string rest = semi == std::string::npos ? "" : note.substr(semi + 2);
+  auto fit_lines = [&](const std::string& text, size_t max_lines) {
+    const std::vector<std::string> lines = wrap_lines(c, text, h, width);
+    std::string out;
+    for (size_t k = 0; k < lines.size() && k + 1 < max_lines; ++k) out += (k ? "\n" : "") + lines[k];
+    if (lines.size() < max_lines) return out;
+    std::string tail;
+    for (size_t k = max_lines - 1; k < lines.size(); ++k) tail += (tail.empty() ? "" : " ") + lines[k];
+    return out + (max_lines > 1 ? "\n" : "") + ellipsize_words(c, tail, h, width);
+  };
+  if (rest.empty()) return fit_lines(first, kNoteLines);
+  return fit_lines(first, kNoteLines - 1) + "\n" + fit_lines(rest, 1);
+}
+
+// Every column but the note as wide as its widest cell (header: its widest word, it may wrap),
+// measured over the whole list so that a continuation on the next sheet keeps the columns.
+Table cut_list_fit(const Canvas& c, Table t, double width, const Table& full) {
+  std::vector<double> need(kCutColumns, 0);
+  for (size_t r = 0; r < full.rows.size(); ++r) {
+    for (size_t i = 0; i < kCutColumns; ++i) {
+      if (i == kNoteColumn) continue;
+      const std::string& s = full.rows[r][i];
+      if (r == 0) {
+        for (size_t a = 0; a < s.size();) {
+          size_t b = s.find_first_of(" \n", a);
+          if (b == std::string::npos) b = s.size();
+          need[i] = std::max(need[i], c.text_width(s.substr(a, b - a), t.h));
+          a = b + 1;
+        }
+      } else {
+        need[i] = std::max(need[i], c.text_width(s, t.h));
+      }
+    }
+  }
+  double used = 0;
+  for (size_t i = 0; i < kCutColumns; ++i) {
+    t.widths[i] = i == kNoteColumn ? 0 : need[i] + 2 * t.pad + 0.5;
+    used += t.widths[i];
+  }
+  if (width - used < kMinNoteWidth) {
+    const double k = (width - kMinNoteWidth) / used;
+    for (double& w : t.widths) w *= k;
+    used = width - kMinNoteWidth;
+  }
+  t.widths[kNoteColumn] = width - used;
+  const double note_w = t.widths[kNoteColumn] - 2 * t.pad;
+  for (size_t r = t.header ? 1 : 0; r < t.rows.size(); ++r) {
+    std::string& note = t.rows[r][kNoteColumn];
+    if (!note.empty()) note = shortened_note(c, note, t.h, note_w);
+  }
+  return t;
+}
+
+Block cut_list_block(const std::vector<geom::CutListRow>& rows, UnitSystem u) {
+  const Table full = cut_list_table(rows, u);
+  return table_block(full, [full](const Canvas& c, Table t, double w) {
+    return cut_list_fit(c, std::move(t), w, full);
+  });
+}
+
+std::vector<std::string> cut_list_footnote(UnitSystem u) {
+  std::string s =
+      "Rows as written to fab/cutlist.csv. Notes are shortened to fit: the full notes, with "
+      "every allowance of a developed length, are in fab/cutlist.csv and on the NOTES layer of "
+      "each part's DXF. Masses as cut (holes out); for round bar the thickness is the bar "
+      "diameter and the blank the sawn length.";
+  if (u == UnitSystem::us) {
+    s += " Sizes here in inches and pounds; the notes, the CSV and the DXF files (1:1) are in "
+         "millimetres and kilograms.";
+  }
+  return {s};
+}
+
 }  // namespace
 
 Turn rotation_for(const Solution& s, bool a_tight) {
@@ -586,7 +720,8 @@ Quantity quantity_of_unit(const std::string& u) {
   return Quantity::dimensionless;
 }
 
-std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSystem u) {
+std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
+                                      const std::vector<geom::CutListRow>& cut, UnitSystem u) {
   std::vector<Block> b;
   b.push_back(heading("1  Method"));
   b.push_back(paragraphs(method_items(d, s), true));
@@ -613,9 +748,16 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSy
   b.push_back(table_block(capacity_thermal_table(d, s, u)));
   b.push_back(heading("7  Checks"));
   b.push_back(table_block(checks_table(s, u)));
+  int section = 8;
   if (!s.warnings.empty()) {
-    b.push_back(heading("8  Warnings"));
+    b.push_back(heading(std::to_string(section++) + "  Warnings"));
     b.push_back(paragraphs(s.warnings, true));
+  }
+  // A concept design has no parts to cut: no section.
+  if (s.layout.from_pins && !cut.empty()) {
+    b.push_back(heading(std::to_string(section) + "  Cut list"));
+    b.push_back(cut_list_block(cut, u));
+    b.push_back(paragraphs(cut_list_footnote(u), false));
   }
   return b;
 }

@@ -1,18 +1,22 @@
 // The calculation sheet: method, inputs, layout, forces by direction and friction, capacity,
-// thermal duty, checks with their sources, warnings and the plots — as blocks to flow over the
-// sheet's columns.
+// thermal duty, checks with their sources, warnings, the plots and the cut list — as blocks to
+// flow over the sheet's columns.
 #pragma once
 
 #include <vector>
 
 #include "drawing/flow.hpp"
+#include "geometry/flat_patterns.hpp"
 #include "src/design.hpp"
 #include "src/mechanics.hpp"
 #include "src/units.hpp"
 
 namespace bandforge::drawing {
 
-std::vector<Block> calculation_blocks(const Design& d, const Solution& s, UnitSystem u);
+/// The sheet's blocks in order. `cut` is the cut list (geom::cut_list, the rows of
+/// fab/cutlist.csv); empty (a concept design): no cut-list section.
+std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
+                                      const std::vector<geom::CutListRow>& cut, UnitSystem u);
 
 /// The drum rotation (seen from the front) that makes end A (or B) the tight end.
 Turn rotation_for(const Solution& s, bool a_tight);

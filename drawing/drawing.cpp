@@ -95,12 +95,12 @@ Planned plan_all(const Canvas& c, const Design& design, const Solution& solution
 }  // namespace
 
 SheetPlan plan_drawing(const Design& design, const Solution& solution, const geom::BrakeModel* model,
-                       UnitSystem units) {
+                       const CutList& cut_list, UnitSystem units) {
   const Canvas measure;  // text widths only
   Planned p = plan_all(measure, design, solution, model);
   const Box caution = caution_box(measure, sheet_size(design.drawing.sheet));
   int pages = 0;
-  flow(measure, calculation_blocks(design, solution, units),
+  flow(measure, calculation_blocks(design, solution, cut_list, units),
        calc_columns(sheet_size(design.drawing.sheet), caution), &pages);
   p.plan.pages = (p.plan.assembly ? 1 : 0) + pages;
   return p.plan;
@@ -108,7 +108,7 @@ SheetPlan plan_drawing(const Design& design, const Solution& solution, const geo
 
 std::string render_drawing(const Design& design, const Solution& solution,
                            const geom::BrakeModel* model, const geom::BrakeModel* released,
-                           UnitSystem units, SheetPlan* plan_out) {
+                           const CutList& cut_list, UnitSystem units, SheetPlan* plan_out) {
   const SheetSize s = sheet_size(design.drawing.sheet);
   Canvas c;
   Planned planned = plan_all(c, design, solution, model);
@@ -118,7 +118,7 @@ std::string render_drawing(const Design& design, const Solution& solution,
 
   // Lay out the calculation sheet first: its page count goes into every title block.
   const Box caution = caution_box(c, s);
-  const std::vector<Block> blocks = calculation_blocks(design, solution, units);
+  const std::vector<Block> blocks = calculation_blocks(design, solution, cut_list, units);
   int calc_pages = 0;
   const std::vector<Placed> placed = flow(c, blocks, calc_columns(s, caution), &calc_pages);
   const int first_calc = plan.assembly ? 2 : 1;
@@ -159,9 +159,9 @@ std::string render_drawing(const Design& design, const Solution& solution,
 
 SheetPlan write_drawing(const Design& design, const Solution& solution,
                         const geom::BrakeModel* model, const geom::BrakeModel* released,
-                        UnitSystem units, const std::string& path) {
+                        const CutList& cut_list, UnitSystem units, const std::string& path) {
   SheetPlan plan;
-  const std::string bytes = render_drawing(design, solution, model, released, units, &plan);
+  const std::string bytes = render_drawing(design, solution, model, released, cut_list, units, &plan);
   // Written beside the target and renamed only when complete: a failed run leaves no PDF.
   const std::string tmp = path + ".tmp";
   {

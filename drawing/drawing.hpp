@@ -4,8 +4,10 @@
 #pragma once
 
 #include <string>
+#include <vector>
 
 #include "geometry/brake_model.hpp"
+#include "geometry/flat_patterns.hpp"
 #include "src/design.hpp"
 #include "src/mechanics.hpp"
 #include "src/units.hpp"
@@ -32,23 +34,29 @@ struct SheetPlan {
   std::vector<std::string> notes;  ///< dimensions moved or dropped, and why
 };
 
+/// The fab pack's cut list for the calculation sheet's table: the rows geom::cut_list() gives
+/// (those of OUTDIR/fab/cutlist.csv), taken as they are. Empty: no table (a concept design).
+using CutList = std::vector<geom::CutListRow>;
+
 /// The sheet and scale for this design: [drawing] sheet/scale when given (checked to fit),
 /// otherwise A3 at the largest ISO 5455 scale at which the views fit. Throws BuildError naming
 /// the sheet and the scales tried when nothing fits. `model` may be null (concept design).
 SheetPlan plan_drawing(const Design& design, const Solution& solution,
-                       const geom::BrakeModel* model, UnitSystem units = UnitSystem::si);
+                       const geom::BrakeModel* model, const CutList& cut_list,
+                       UnitSystem units = UnitSystem::si);
 
 /// Writes the PDF to `path` (through a temporary file renamed when complete). `model` is the
 /// applied-state assembly (null for a concept design: calculation sheet only); `released` the
-/// released state, drawn as the lever's phantom position (may be null).
+/// released state, drawn as the lever's phantom position (may be null); `cut_list` the rows of
+/// the cut-list table on the calculation sheet.
 /// Throws BuildError (layout cannot fit, libharu failure) or IoError (cannot write).
 SheetPlan write_drawing(const Design& design, const Solution& solution,
                         const geom::BrakeModel* model, const geom::BrakeModel* released,
-                        UnitSystem units, const std::string& path);
+                        const CutList& cut_list, UnitSystem units, const std::string& path);
 
 /// The same document as bytes (what write_drawing writes).
 std::string render_drawing(const Design& design, const Solution& solution,
                            const geom::BrakeModel* model, const geom::BrakeModel* released,
-                           UnitSystem units, SheetPlan* plan = nullptr);
+                           const CutList& cut_list, UnitSystem units, SheetPlan* plan = nullptr);
 
 }  // namespace bandforge::drawing

@@ -63,6 +63,19 @@ struct BuildOptions {
   bool interference = true;
 };
 
+/// While any QuietOcct is alive, OpenCASCADE's messages go to stderr and only at failure level,
+/// so stdout stays clean (the STEP writer prints transfer statistics otherwise). The messenger is
+/// process-wide: guards nest and may be held by several threads at once; the first one in
+/// replaces the printers, the last one out puts them back. A caller that runs OCCT work on several
+/// threads holds one for the whole time, so the printers never change under a running thread.
+class QuietOcct {
+ public:
+  QuietOcct();
+  ~QuietOcct();
+  QuietOcct(const QuietOcct&) = delete;
+  QuietOcct& operator=(const QuietOcct&) = delete;
+};
+
 class BrakeModel {
  public:
   ~BrakeModel();

@@ -8,22 +8,9 @@
 #include <utility>
 #include <vector>
 
-#include <Message_Printer.hxx>
-#include <Message_SequenceOfPrinters.hxx>
+#include "geometry/brake_model.hpp"  // QuietOcct
 
 namespace bandforge::geom {
-
-/// While alive, OCCT messages go to stderr and only at failure level; stdout stays clean.
-class QuietOcct {
- public:
-  QuietOcct();
-  ~QuietOcct();
-  QuietOcct(const QuietOcct&) = delete;
-  QuietOcct& operator=(const QuietOcct&) = delete;
-
- private:
-  Message_SequenceOfPrinters saved_;
-};
 
 /// Interface_Static settings changed for one translation and restored on destruction.
 class StaticSettings {

@@ -4,6 +4,7 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
@@ -20,6 +21,7 @@
 
 #include "drawing/drawing.hpp"
 #include "geometry/brake_model.hpp"
+#include "geometry/flat_patterns.hpp"
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
@@ -83,6 +85,7 @@ struct Drawn {
   Design design;
   Solution solution;
   std::unique_ptr<geom::BrakeModel> applied, released;
+  CutList cut;  ///< geom::cut_list() of the applied model, as `build` gives the drawing
   SheetPlan plan;
   fs::path pdf;
 };
@@ -98,9 +101,10 @@ std::unique_ptr<Drawn> draw(const std::string& design_file, const std::string& o
     geom::BuildOptions rel;
     rel.released = true;
     d->released = std::make_unique<geom::BrakeModel>(geom::build_brake(d->design, d->solution, rel));
+    d->cut = geom::cut_list(d->design, d->solution, *d->applied);
   }
   d->pdf = scratch(out_name);
-  d->plan = write_drawing(d->design, d->solution, d->applied.get(), d->released.get(), units,
+  d->plan = write_drawing(d->design, d->solution, d->applied.get(), d->released.get(), d->cut, units,
                           d->pdf.string());
   return d;
 }
@@ -453,7 +457,8 @@ TEST(DrawingRender, TitleBlockIsClearOfViewGeometry) {
 TEST(DrawingOutput, SameInputGivesTheSameBytes) {
   const Drawn& d = example();
   const fs::path again = scratch("again.pdf");
-  write_drawing(d.design, d.solution, d.applied.get(), d.released.get(), UnitSystem::si, again.string());
+  write_drawing(d.design, d.solution, d.applied.get(), d.released.get(), d.cut, UnitSystem::si,
+                again.string());
   EXPECT_EQ(read_bytes(d.pdf), read_bytes(again));
   // No clock time in the file (libharu writes no CreationDate/ID unless asked).
   const std::string bytes = read_bytes(d.pdf);
@@ -480,8 +485,8 @@ TEST(DrawingOutput, LayoutThatCannotFitNamesSheetAndScale) {
   d.drawing.scale_den = 1;  // a 1 m brake at full size on A4
   const fs::path out = scratch("nofit.pdf");
   try {
-    write_drawing(d, example().solution, example().applied.get(), example().released.get(), UnitSystem::si,
-                  out.string());
+    write_drawing(d, example().solution, example().applied.get(), example().released.get(), example().cut,
+                  UnitSystem::si, out.string());
     FAIL() << "expected a BuildError";
   } catch (const BuildError& e) {
     const std::string msg = e.what();
@@ -496,9 +501,227 @@ TEST(DrawingOutput, LayoutThatCannotFitNamesSheetAndScale) {
 TEST(DrawingOutput, UnwritablePathIsAnIoErrorAndLeavesNothing) {
   const fs::path out = scratch("no-such-dir") / "x.pdf";
   EXPECT_THROW(write_drawing(example().design, example().solution, example().applied.get(),
-                             example().released.get(), UnitSystem::si, out.string()),
+                             example().released.get(), example().cut, UnitSystem::si, out.string()),
                IoError);
   EXPECT_FALSE(fs::exists(out));
+}
+
+// ---- cut list on the calculation sheet ----------------------------------------------------------
+// The independent reference is OUTDIR/fab/cutlist.csv as the fab code writes it in the same
+// `bandforge build`; the sheet is read back with pdftotext -layout.
+
+// RFC 4180 records: quoted fields with doubled quotes, '\n' line ends.
+std::vector<std::vector<std::string>> parse_csv(const std::string& text) {
+  std::vector<std::vector<std::string>> out;
+  std::vector<std::string> record;
+  std::string field;
+  bool quoted = false;
+  for (size_t i = 0; i < text.size(); ++i) {
+    const char ch = text[i];
+    if (quoted) {
+      if (ch == '"' && i + 1 < text.size() && text[i + 1] == '"') {
+        field += '"';
+        ++i;
+      } else if (ch == '"') {
+        quoted = false;
+      } else {
+        field += ch;
+      }
+    } else if (ch == '"') {
+      quoted = true;
+    } else if (ch == ',') {
+      record.push_back(field);
+      field.clear();
+    } else if (ch == '\n') {
+      record.push_back(field);
+      field.clear();
+      out.push_back(record);
+      record.clear();
+    } else {
+      field += ch;
+    }
+  }
+  return out;
+}
+
+struct CsvRow {
+  std::map<std::string, std::string> f;
+  const std::string& operator[](const std::string& k) const { return f.at(k); }
+};
+
+std::vector<CsvRow> read_cutlist(const fs::path& csv) {
+  const auto records = parse_csv(read_bytes(csv));
+  std::vector<CsvRow> rows;
+  if (records.empty()) return rows;
+  for (size_t r = 1; r < records.size(); ++r) {
+    CsvRow row;
+    for (size_t i = 0; i < records[0].size() && i < records[r].size(); ++i) row.f[records[0][i]] = records[r][i];
+    rows.push_back(row);
+  }
+  return rows;
+}
+
+double half_unit(const std::string& printed) {
+  const size_t dot = printed.find('.');
+  const int decimals = dot == std::string::npos ? 0 : static_cast<int>(printed.size() - dot - 1);
+  return 0.5 * std::pow(10.0, -decimals);
+}
+
+// Both are roundings of one value: the sheet's `printed` (in the display unit) and the CSV's
+// `csv` (mm or kg, `k` converts to the display unit), so they differ by at most the two half units.
+void expect_same_value(const std::string& printed, const std::string& csv, double k, const std::string& what) {
+  const double tol = half_unit(printed) + half_unit(csv) * k;
+  EXPECT_LE(std::abs(std::stod(printed) - std::stod(csv) * k), tol * (1 + 1e-9))
+      << what << ": sheet " << printed << ", cutlist.csv " << csv;
+}
+
+std::string regex_escaped(const std::string& s) {
+  static const std::regex special(R"([.^$|()\[\]{}*+?\\])");
+  return std::regex_replace(s, special, R"(\$&)");
+}
+
+int page_count(const fs::path& pdf) {
+  std::smatch m;
+  const std::string info = run("pdfinfo " + quote(pdf)).out;
+  return std::regex_search(info, m, std::regex(R"(Pages:\s+(\d+))")) ? std::stoi(m[1]) : 0;
+}
+
+struct Built {
+  fs::path pdf;
+  std::vector<CsvRow> csv;
+  std::string calc;  // pdftotext -layout of the calculation sheets (page 2 on)
+  int pages = 0;
+};
+
+Built build_example(const std::string& dir, const std::string& units) {
+  Built b;
+  const fs::path out = scratch(dir);
+  const Shell r = run(std::string(BANDFORGE_EXE) + " build " + quote(kExample) + " --units " + units + " -o " + quote(out));
+  EXPECT_EQ(r.status, 0) << r.out;
+  b.pdf = out / (example().design.project.number + ".pdf");
+  b.csv = read_cutlist(out / "fab" / "cutlist.csv");
+  b.pages = page_count(b.pdf);
+  for (int p = 2; p <= b.pages; ++p) b.calc += text_of(b.pdf, p, true);
+  return b;
+}
+
+// Each CSV row's line in the sheet's table: part, material, stock, thickness, length [× width],
+// quantity, mass each, mass total, then the note's first line.
+struct SheetRow {
+  std::string thickness, length, width, quantity, mass_each, mass_total, note;
+};
+
+std::vector<SheetRow> rows_on_sheet(const std::string& calc, const CsvRow& row) {
+  const std::string n = R"((\d+(?:\.\d+)?))";
+  const std::regex re(regex_escaped(row["part"]) + R"(\s+)" + regex_escaped(row["material"]) + R"(\s+)" +
+                      regex_escaped(row["stock"]) + R"(\s+(?:Ø)?)" + n + R"(\s+)" + n + R"((?:\s*×\s*)" + n +
+                      R"()?\s+(\d+)\s+)" + n + R"(\s+)" + n + R"( ([^\n]*))");
+  std::vector<SheetRow> out;
+  for (auto it = std::sregex_iterator(calc.begin(), calc.end(), re); it != std::sregex_iterator(); ++it) {
+    const auto& m = *it;
+    std::string note = m[7];
+    note = note.substr(0, note.find("   "));  // the other column of the sheet, if any, follows
+    while (!note.empty() && note.front() == ' ') note.erase(0, 1);
+    out.push_back({m[1], m[2], m[3], m[4], m[5], m[6], note});
+  }
+  return out;
+}
+
+void expect_cut_list_on_sheet(const Built& b, double mm_to_unit, double kg_to_unit) {
+  ASSERT_GE(b.csv.size(), 4u);  // band and lining blanks, lever plate, pins at least
+  EXPECT_NE(b.calc.find("Cut list"), std::string::npos);
+  double total = 0, csv_rounding = 0;
+  for (const CsvRow& row : b.csv) {
+    SCOPED_TRACE(row["part"]);
+    const auto found = rows_on_sheet(b.calc, row);
+    ASSERT_EQ(found.size(), 1u) << "the row of " << row["part"] << " on the calculation sheet";
+    const SheetRow& s = found[0];
+    expect_same_value(s.length, row["length_mm"], mm_to_unit, "blank length");
+    EXPECT_EQ(s.quantity, row["quantity"]);
+    expect_same_value(s.thickness, row["thickness_mm"], mm_to_unit, "thickness");
+    if (!s.width.empty()) expect_same_value(s.width, row["width_mm"], mm_to_unit, "blank width");
+    else EXPECT_EQ(row["stock"], "round bar");  // a bar shows its sawn length only
+    expect_same_value(s.mass_each, row["mass_each_kg"], kg_to_unit, "mass each");
+    expect_same_value(s.mass_total, row["mass_total_kg"], kg_to_unit, "mass total");
+    // The note is shortened, never changed: its first line starts the CSV's note.
+    std::string head = s.note;
+    if (head.size() >= 4 && head.compare(head.size() - 4, 4, " …") == 0) head.resize(head.size() - 4);
+    ASSERT_FALSE(head.empty());
+    EXPECT_EQ(row["note"].rfind(head, 0), 0u) << "sheet: '" << s.note << "', csv: '" << row["note"] << "'";
+    total += std::stod(row["mass_total_kg"]);
+    csv_rounding += half_unit(row["mass_total_kg"]);
+  }
+  // The total row: the sum of the CSV's totals, each rounded to 1 g there (hand sum in the test).
+  const auto t = numbers_after(b.calc, "Total ");
+  ASSERT_EQ(t.size(), 1u);
+  EXPECT_LE(std::abs(std::stod(t[0]) - total * kg_to_unit), half_unit(t[0]) + csv_rounding * kg_to_unit)
+      << "total mass " << t[0];
+  // Where the full notes are.
+  EXPECT_NE(b.calc.find("NOTES layer"), std::string::npos);
+  EXPECT_NE(b.calc.find("fab/cutlist.csv"), std::string::npos);
+}
+
+TEST(DrawingCutList, EveryRowOfCutlistCsvIsOnTheCalculationSheet) {
+  const Built b = build_example("cut-si", "si");
+  expect_cut_list_on_sheet(b, 1.0, 1.0);
+  // The band blank's developed length is printed to 0.1 mm (ISO 129 style), the CSV to 0.01 mm:
+  // the band's note is shortened on the sheet (its allowances are listed in full in the CSV).
+  const auto band = std::find_if(b.csv.begin(), b.csv.end(), [](const CsvRow& r) { return r["part"] == "BAND-BLANK"; });
+  ASSERT_NE(band, b.csv.end());
+  EXPECT_EQ(b.calc.find((*band)["note"]), std::string::npos);
+  // Not on the assembly sheet: the table belongs to the calculation sheet.
+  EXPECT_EQ(text_of(b.pdf, 1).find("BAND-BLANK"), std::string::npos);
+  // The in-process drawing (cut_list() of the test's model) gives the same bytes as `build`.
+  EXPECT_EQ(read_bytes(b.pdf), read_bytes(example().pdf));
+}
+
+TEST(DrawingCutList, UsUnitsGiveInchesAndPounds) {
+  const Built b = build_example("cut-us", "us");
+  // 1 in = 25.4 mm, 1 lb = 0.45359237 kg (exact definitions, 1959 international yard and pound).
+  expect_cut_list_on_sheet(b, 1 / 25.4, 1 / 0.45359237);
+  EXPECT_NE(b.calc.find("[in]"), std::string::npos);
+  EXPECT_NE(b.calc.find("[lb]"), std::string::npos);
+  EXPECT_NE(b.calc.find("in millimetres"), std::string::npos);  // the notes quote mm
+}
+
+TEST(DrawingCutList, ConceptDesignHasNoCutList) {
+  const fs::path out = scratch("cut-concept");
+  const std::string design = kSource + "/examples/concept-differential.toml";
+  ASSERT_EQ(run(std::string(BANDFORGE_EXE) + " build " + quote(design) + " -o " + quote(out)).status, 0);
+  EXPECT_FALSE(fs::exists(out / "fab"));
+  fs::path pdf;
+  for (const auto& e : fs::directory_iterator(out)) {
+    if (e.path().extension() == ".pdf") pdf = e.path();
+  }
+  ASSERT_FALSE(pdf.empty());
+  const std::string text = text_of(pdf);
+  EXPECT_NE(text.find("Calculation sheet"), std::string::npos);
+  EXPECT_EQ(text.find("Cut list"), std::string::npos);
+  EXPECT_EQ(text.find("cutlist.csv"), std::string::npos);
+}
+
+TEST(DrawingCutList, NoTwoWordsOverlapOnItsSheet) {
+  // The page that carries the table, on A3, in US units and on A4 (one narrow column).
+  const auto us = draw(kExample, "cut-overlap-us.pdf", UnitSystem::us);
+  const auto a4 = draw(kExample, "cut-overlap-a4.pdf", UnitSystem::si, "A4");
+  for (const Drawn* d : std::vector<const Drawn*>{&example(), us.get(), a4.get()}) {
+    SCOPED_TRACE(d->pdf.string());
+    int page = 0;
+    for (int p = 2; p <= d->plan.pages && page == 0; ++p) {
+      if (text_of(d->pdf, p).find("BAND-BLANK") != std::string::npos) page = p;
+    }
+    ASSERT_GT(page, 0);
+    const auto words = cap_boxes(d->pdf, page);
+    for (size_t i = 0; i < words.size(); ++i) {
+      for (size_t j = i + 1; j < words.size(); ++j) {
+        const Word& a = words[i];
+        const Word& b = words[j];
+        const double ix = std::min(a.x1, b.x1) - std::max(a.x0, b.x0);
+        const double iy = std::min(a.y1, b.y1) - std::max(a.y0, b.y0);
+        EXPECT_FALSE(ix > 0.3 && iy > 0.3) << "page " << page << ": '" << a.text << "' overlaps '" << b.text << "'";
+      }
+    }
+  }
 }
 
 // ---- every example ------------------------------------------------------------------------

@@ -201,7 +201,8 @@ void run_build(const BuildCommand& cmd) {
 #ifdef BANDFORGE_HAVE_DRAWING
     const std::string stem = file_stem(design.project.number);
     Staging staging(cmd.out_dir, stem);
-    drawing::write_drawing(design, solution, nullptr, nullptr,
+    // No solids, nothing to cut: an empty cut list, no table.
+    drawing::write_drawing(design, solution, nullptr, nullptr, {},
                            cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
                            staging.path(stem + ".pdf"));
     const std::vector<std::string> files = staging.commit();
@@ -225,6 +226,8 @@ void run_build(const BuildCommand& cmd) {
   }
   const std::string stem = file_stem(design.project.number);
   Staging staging(cmd.out_dir, stem);
+  // OCCT's messenger is process-wide: one guard for the whole two-thread section (see QuietOcct).
+  const geom::QuietOcct quiet;
   // Staged names are taken here, on one thread, in the order the files are listed.
   const std::string step_path = staging.path(stem + ".step");
 #ifdef BANDFORGE_HAVE_DRAWING
@@ -233,6 +236,10 @@ void run_build(const BuildCommand& cmd) {
   // it works on its own copies of the solids (no OCCT shape is shared between the threads).
   // It shows the applied state with the released lever as a phantom line, so it needs both
   // states; its copies skip the interference checks, which the checked model below runs.
+  // The calculation sheet's cut list is taken from its own applied copy by the same cut_list()
+  // that gives the rows of fab/cutlist.csv below: the flat patterns do not depend on the state
+  // (the band is developed from the solved layout, plates and bars are read in part coordinates),
+  // and the two threads share nothing they write.
   std::future<void> drawing_done = std::async(std::launch::async, [&] {
     geom::BuildOptions applied;
     applied.interference = false;
@@ -240,7 +247,8 @@ void run_build(const BuildCommand& cmd) {
     released.released = true;
     const geom::BrakeModel shown = geom::build_brake(design, solution, applied);
     const geom::BrakeModel phantom = geom::build_brake(design, solution, released);
-    drawing::write_drawing(design, solution, &shown, &phantom,
+    const std::vector<geom::CutListRow> cut = geom::cut_list(design, solution, shown);
+    drawing::write_drawing(design, solution, &shown, &phantom, cut,
                            cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
                            pdf_path);
   });

@@ -3,11 +3,13 @@
 // command with /usr/bin/time -v). Run: build/tests/bench/drawing_bench
 #include <filesystem>
 #include <string>
+#include <vector>
 
 #include <benchmark/benchmark.h>
 
 #include "drawing/drawing.hpp"
 #include "geometry/brake_model.hpp"
+#include "geometry/flat_patterns.hpp"
 #include "geometry/projection.hpp"
 #include "src/design_reader.hpp"
 #include "src/mechanics.hpp"
@@ -45,6 +47,12 @@ const geom::BrakeModel& released() {
   return m;
 }
 
+// The cut-list rows of the calculation sheet's table, as `build` takes them on the drawing thread.
+const std::vector<geom::CutListRow>& cut() {
+  static const std::vector<geom::CutListRow> rows = geom::cut_list(example(), solution(), applied());
+  return rows;
+}
+
 // Exact hidden-line removal, one view each.
 void BM_HlrFront(benchmark::State& state) {
   for (auto _ : state) benchmark::DoNotOptimize(geom::project(applied(), geom::front_view()));
@@ -71,11 +79,17 @@ void BM_ReleasedModel(benchmark::State& state) {
 }
 BENCHMARK(BM_ReleasedModel)->Unit(benchmark::kMillisecond);
 
+// The cut list the drawing thread computes from its own model (flat patterns of every part).
+void BM_CutList(benchmark::State& state) {
+  for (auto _ : state) benchmark::DoNotOptimize(geom::cut_list(example(), solution(), applied()));
+}
+BENCHMARK(BM_CutList)->Unit(benchmark::kMillisecond);
+
 // The whole PDF in memory: HLR of all views, layout, both sheets, libharu output.
 void BM_RenderPdf(benchmark::State& state) {
   for (auto _ : state) {
     benchmark::DoNotOptimize(
-        drawing::render_drawing(example(), solution(), &applied(), &released(), UnitSystem::si));
+        drawing::render_drawing(example(), solution(), &applied(), &released(), cut(), UnitSystem::si));
   }
 }
 BENCHMARK(BM_RenderPdf)->Unit(benchmark::kMillisecond);
@@ -83,7 +97,7 @@ BENCHMARK(BM_RenderPdf)->Unit(benchmark::kMillisecond);
 // The calculation sheet alone (a concept design's whole PDF): layout and libharu, no views.
 void BM_RenderCalculationOnly(benchmark::State& state) {
   for (auto _ : state) {
-    benchmark::DoNotOptimize(drawing::render_drawing(example(), solution(), nullptr, nullptr, UnitSystem::si));
+    benchmark::DoNotOptimize(drawing::render_drawing(example(), solution(), nullptr, nullptr, {}, UnitSystem::si));
   }
 }
 BENCHMARK(BM_RenderCalculationOnly)->Unit(benchmark::kMillisecond);
@@ -93,7 +107,7 @@ void BM_WritePdf(benchmark::State& state) {
   const std::string path = (std::filesystem::temp_directory_path() / "bandforge-drawing-bench.pdf").string();
   for (auto _ : state) {
     benchmark::DoNotOptimize(
-        drawing::write_drawing(example(), solution(), &applied(), &released(), UnitSystem::si, path));
+        drawing::write_drawing(example(), solution(), &applied(), &released(), cut(), UnitSystem::si, path));
   }
   std::filesystem::remove(path);
 }
