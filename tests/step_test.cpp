@@ -13,6 +13,7 @@
 #include <set>
 #include <sstream>
 #include <string>
+#include <thread>
 #include <vector>
 
 #include <gtest/gtest.h>
@@ -21,6 +22,8 @@
 #include <BRepGProp.hxx>
 #include <GProp_GProps.hxx>
 #include <IFSelect_ReturnStatus.hxx>
+#include <Message.hxx>
+#include <Message_Messenger.hxx>
 #include <Interface_Static.hxx>
 #include <Quantity_Color.hxx>
 #include <STEPCAFControl_Reader.hxx>
@@ -236,6 +239,45 @@ TEST(StepExport, WritingLeavesStdoutAndOcctSettingsAlone) {
   Interface_Static::SetCVal("write.step.schema", before.c_str());
   EXPECT_NE(slurp(file).find("AUTOMOTIVE_DESIGN"), std::string::npos);
   EXPECT_FALSE(fs::exists(file.string() + ".partial"));
+}
+
+TEST(QuietOcct, GuardsNestAcrossThreadsAndTheLastOneRestoresThePrinters) {
+  // `build` holds guards on two threads at once (drawing beside checks and STEP): the printers
+  // must be replaced once and put back only when the last guard ends.
+  const Handle(Message_Messenger)& messenger = Message::DefaultMessenger();
+  const int before = messenger->Printers().Length();
+  {
+    QuietOcct outer;
+    const int quiet = messenger->Printers().Length();
+    std::thread other([&] {
+      QuietOcct inner;
+      EXPECT_EQ(messenger->Printers().Length(), quiet);
+    });
+    other.join();
+    EXPECT_EQ(messenger->Printers().Length(), quiet);  // the inner guard did not restore early
+    testing::internal::CaptureStdout();
+    messenger->Send("a warning that must not reach stdout", Message_Warning);
+    EXPECT_EQ(testing::internal::GetCapturedStdout(), "");
+  }
+  EXPECT_EQ(messenger->Printers().Length(), before);
+}
+
+TEST(BuildCommand, ConcurrentBuildsNeverCrash) {
+  // Regression: the two threads of one build once raced on OCCT's messenger and crashed about one
+  // build in twenty on a loaded machine. Three builds at a time, five rounds.
+  const std::string exe = BANDFORGE_EXE;
+  std::string cmd;
+  for (int round = 0; round < 5; ++round) {
+    for (const char* ex : {"bin-hoist", "trolley-two-way", "ferry-differential"}) {
+      const fs::path dir = fresh_dir(std::string("many-") + ex + std::to_string(round));
+      cmd += "'" + exe + "' build '" + kSource + "/examples/" + ex + ".toml' -o '" + dir.string() +
+             "' >/dev/null 2>&1 || echo FAILED " + ex + " & ";
+    }
+    cmd += "wait; ";
+  }
+  const auto [status, out] = run(cmd);
+  EXPECT_EQ(status, 0);
+  EXPECT_EQ(out.find("FAILED"), std::string::npos) << out;
 }
 
 TEST(StepExport, SameInputSameBytesInTwoProcesses) {
