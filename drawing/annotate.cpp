@@ -2,21 +2,11 @@
 
 #include <algorithm>
 #include <cmath>
-#include <numbers>
+
+#include "drawing/vec2.hpp"
 
 namespace bandforge::drawing {
 namespace {
-
-constexpr double kPi = std::numbers::pi;
-
-double dot(Pt a, Pt b) { return a.x * b.x + a.y * b.y; }
-double norm(Pt a) { return std::hypot(a.x, a.y); }
-Pt unit(Pt a) {
-  const double n = norm(a);
-  return n > 0 ? Pt{a.x / n, a.y / n} : Pt{1, 0};
-}
-Pt perp(Pt a) { return {-a.y, a.x}; }
-
 
 // Separating-axis test for two convex polygons given as point lists (a segment is a 2-gon).
 bool separated(const Pt* a, int na, const Pt* b, int nb) {

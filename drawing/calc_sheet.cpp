@@ -705,21 +705,6 @@ Turn rotation_for(const Solution& s, bool a_tight) {
   return ccw ? Turn::ccw : Turn::cw;
 }
 
-Quantity quantity_of_unit(const std::string& u) {
-  if (u == "Pa") return Quantity::stress;
-  if (u == "N") return Quantity::force;
-  if (u == "N·m" || u == "N*m") return Quantity::torque;
-  if (u == "m") return Quantity::length;
-  if (u == "°C") return Quantity::temperature;
-  if (u == "K") return Quantity::temperature_difference;
-  if (u == "W/m²") return Quantity::power_density;
-  if (u == "W") return Quantity::power;
-  if (u == "J") return Quantity::energy;
-  if (u == "kg") return Quantity::mass;
-  if (u == "rad") return Quantity::angle;
-  return Quantity::dimensionless;
-}
-
 std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
                                       const std::vector<geom::CutListRow>& cut, UnitSystem u) {
   std::vector<Block> b;

@@ -21,7 +21,4 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
 /// The drum rotation (seen from the front) that makes end A (or B) the tight end.
 Turn rotation_for(const Solution& s, bool a_tight);
 
-/// The display quantity of a check's SI unit symbol ("Pa" → stress, "N·m" → torque, ...).
-Quantity quantity_of_unit(const std::string& si_unit);
-
 }  // namespace bandforge::drawing

@@ -13,6 +13,9 @@ namespace bandforge::drawing {
 constexpr double kMmPerM = 1000.0;  // the solids are in mm, the design in m
 constexpr double kLevel = 7.0;      // spacing of stacked dimension lines [mm]
 
+/// A design point [m] in model millimetres.
+inline Pt mm(Vec2 v) { return {v.x * kMmPerM, v.y * kMmPerM}; }
+
 /// Pivot, handle and pin centres in model millimetres.
 struct Features {
   Pt pivot, handle, a, b;

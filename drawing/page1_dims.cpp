@@ -6,23 +6,13 @@
 #include <cmath>
 #include <cstdio>
 #include <map>
-#include <numbers>
 
 #include "drawing/format.hpp"
 #include "drawing/page1.hpp"
+#include "drawing/vec2.hpp"
 
 namespace bandforge::drawing {
 namespace {
-
-constexpr double kPi = std::numbers::pi;
-
-double dot(Pt a, Pt b) { return a.x * b.x + a.y * b.y; }
-double norm(Pt a) { return std::hypot(a.x, a.y); }
-Pt unit(Pt a) {
-  const double n = norm(a);
-  return n > 0 ? Pt{a.x / n, a.y / n} : Pt{1, 0};
-}
-Pt mm(Vec2 v) { return {v.x * kMmPerM, v.y * kMmPerM}; }
 
 std::vector<double> levels_from(double first, double step, int n) {
   std::vector<double> v;

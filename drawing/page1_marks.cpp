@@ -2,19 +2,14 @@
 // tight/slack labels and the balloons of the parts list; and the helpers page 1 shares.
 #include <algorithm>
 #include <cmath>
-#include <numbers>
 
 #include "drawing/page1.hpp"
 #include "drawing/page1_tables.hpp"
+#include "drawing/vec2.hpp"
 #include "src/proportions.hpp"
 
 namespace bandforge::drawing {
 namespace {
-
-constexpr double kPi = std::numbers::pi;
-
-double norm(Pt a) { return std::hypot(a.x, a.y); }
-Pt mm(Vec2 v) { return {v.x * kMmPerM, v.y * kMmPerM}; }
 
 // Candidate centres on rings around a box, nearest to `target` first.
 std::vector<Pt> ring_candidates(const Box& b, Pt target, std::initializer_list<double> offsets) {

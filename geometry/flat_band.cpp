@@ -176,14 +176,10 @@ std::string rivet_line(const LiningRivets& rv, double pitch_here) {
 FlatPart band_blank(const Design& d, const Solution& s, const PartInfo& band) {
   const Plan p = plan(d, s);
   const Joint& j = p.joint;
-  FlatPart f;
+  FlatPart f = flat_part_for(band);
   f.name = "BAND-BLANK";
   f.file = "band-blank.dxf";
-  f.solid = band.name;
-  f.material = band.material;
-  f.density = band.density;
   f.thickness = p.t;
-  f.quantity = static_cast<int>(band.instance_names.size());
 
   // Stations along the blank from the free end of end A (x = 0).
   const double x1 = j.lap;                    // B1: eye A starts
@@ -285,14 +281,10 @@ std::optional<FlatPart> lining_blank(const Design& d, const Solution& s, const P
                      "or at most " + num(2 * lining_max_strain * p.r / (1 - lining_max_strain), 1) +
                      " mm thickness");
   }
-  FlatPart f;
+  FlatPart f = flat_part_for(lining);
   f.name = "LINING-BLANK";
   f.file = "lining-blank.dxf";
-  f.solid = lining.name;
-  f.material = lining.material;
-  f.density = lining.density;
   f.thickness = p.lining_t;
-  f.quantity = static_cast<int>(lining.instance_names.size());
   const double length = p.r_lin * p.wrap;
   f.developed = {{"wrap angle x lining neutral radius (r_b - t/2 - t_lining/2)", length}};
   f.contours.push_back(rectangle(length, p.b));

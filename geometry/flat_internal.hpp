@@ -33,6 +33,16 @@ BarSize bar_size(const BrakeModel& model, std::size_t part);
 std::size_t find_part(const BrakeModel& model, const char* kind);
 std::vector<std::size_t> parts_of_kind(const BrakeModel& model, const char* kind);
 
+/// A flat part that becomes the solid `info`: its name, material, density and quantity.
+inline FlatPart flat_part_for(const PartInfo& info) {
+  FlatPart f;
+  f.solid = info.name;
+  f.material = info.material;
+  f.density = info.density;
+  f.quantity = static_cast<int>(info.instance_names.size());
+  return f;
+}
+
 /// Fills length, width, area, perimeter and mass from the contours and holes.
 void finish(FlatPart& part);
 

@@ -118,11 +118,7 @@ const BrakeModel::Impl::Part& part_at(const BrakeModel& model, std::size_t part)
 FlatPart plate_from_solid(const BrakeModel& model, std::size_t index) {
   const PartInfo& info = model.parts().at(index);
   const std::string what = "plate " + info.name;
-  FlatPart f;
-  f.solid = info.name;
-  f.material = info.material;
-  f.density = info.density;
-  f.quantity = static_cast<int>(info.instance_names.size());
+  FlatPart f = flat_part_for(info);
   try {
     const std::vector<ZFace> faces = z_faces(part_at(model, index).shape);
     if (faces.size() != 2) cannot(what, "it is not a plate extruded along z");

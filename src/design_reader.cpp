@@ -306,6 +306,13 @@ class Reader {
 
   SourcePos pos(const toml::node& n) const { return pos_of(n.source().begin); }
 
+  /// A value that is present in `s` but wrong: the message names it and quotes it as written.
+  [[noreturn]] void bad_value(const Section& s, std::string_view key,
+                              const std::string& problem) const {
+    const toml::node& n = *s.table->get(key);
+    fail(pos(n), s.path + "." + std::string(key), written(n), problem);
+  }
+
   [[noreturn]] void missing(const Section& s, std::string_view key, const std::string& what) const {
     fail(s.pos, s.path + "." + std::string(key), "",
          "missing key '" + std::string(key) + "' in " + s.title + ": " + what);
@@ -321,8 +328,7 @@ class Reader {
     const toml::node* n = node(s, key);
     if (n == nullptr) return std::nullopt;
     if (const auto* v = n->as_string()) return v->get();
-    fail(pos(*n), s.path + "." + std::string(key), written(*n),
-         "expected a string in double quotes, e.g. " + in_quotes("text"));
+    bad_value(s, key, "expected a string in double quotes, e.g. " + in_quotes("text"));
   }
 
   /// One of `choices`; returns its index.
@@ -338,8 +344,14 @@ class Reader {
         ++i;
       }
     }
-    fail(pos(*n), s.path + "." + std::string(key), written(*n),
-         "expected " + join_quoted(choices));
+    bad_value(s, key, "expected " + join_quoted(choices));
+  }
+
+  /// A required "cw" or "ccw"; `what` says what the key means when it is missing.
+  Turn turn(const Section& s, std::string_view key, const std::string& what) {
+    const auto t = choice(s, key, {"cw", "ccw"});
+    if (!t) missing(s, key, what);
+    return *t == 0 ? Turn::cw : Turn::ccw;
   }
 
   double quantity_of(const toml::node& n, const std::string& path, Quantity q) const {
@@ -487,25 +499,23 @@ class Reader {
     Project& p = d_.project;
     const auto one_line = [&](std::string_view key, std::optional<std::string> v) {
       if (v && has_control_chars(*v)) {
-        const toml::node* n = s.table->get(key);
-        fail(pos(*n), s.path + "." + std::string(key), written(*n),
-             "must be one line of text without tabs or control characters (it goes in the "
-             "title block)");
+        bad_value(s, key,
+                  "must be one line of text without tabs or control characters (it goes in the "
+                  "title block)");
       }
       return v;
     };
     auto title = one_line("title", string(s, "title"));
     if (!title) missing(s, "title", "the drawing title, e.g. title = \"Hoist holding brake\"");
     if (title->find_first_not_of(' ') == std::string::npos) {
-      fail(pos(*s.table->get("title")), "project.title", written(*s.table->get("title")),
-           "the title must not be empty");
+      bad_value(s, "title", "the title must not be empty");
     }
     p.title = *title;
     if (auto v = one_line("number", string(s, "number"))) {
       if (!is_safe_stem(*v)) {
-        fail(pos(*s.table->get("number")), "project.number", written(*s.table->get("number")),
-             "the number names the output files: use letters, digits, '-', '_' and '.', starting "
-             "with a letter or digit, e.g. \"KFW-2207-BR\"");
+        bad_value(s, "number",
+                  "the number names the output files: use letters, digits, '-', '_' and '.', starting "
+                  "with a letter or digit, e.g. \"KFW-2207-BR\"");
       }
       p.number = *v;
     }
@@ -535,24 +545,18 @@ class Reader {
     dr.width = positive(s, "width", Quantity::length, "the face width of the rim");
     dr.bore = positive(s, "bore", Quantity::length, "the shaft bore");
     if (dr.bore >= dr.diameter / 2) {
-      fail(pos(*s.table->get("bore")), "drum.bore", written(*s.table->get("bore")),
-           "the bore must be smaller than half the drum diameter (" +
-               format_quantity(dr.diameter / 2, Quantity::length, UnitSystem::si) +
-               ") to leave a hub and a rim");
+      bad_value(s, "bore", "the bore must be smaller than half the drum diameter (" +
+                format_quantity(dr.diameter / 2, Quantity::length, UnitSystem::si) +
+                ") to leave a hub and a rim");
     }
-    const auto rot = choice(s, "rotation", {"cw", "ccw"});
-    if (!rot) {
-      missing(s, "rotation", "the load's rotation to be braked, seen from the front: "
-                             "rotation = \"cw\" or \"ccw\"");
-    }
-    dr.rotation = *rot == 0 ? Turn::cw : Turn::ccw;
+    dr.rotation = turn(s, "rotation", "the load's rotation to be braked, seen from the front: "
+                                      "rotation = \"cw\" or \"ccw\"");
     dr.material = string(s, "material").value_or("cast-iron");
     const DrumMaterial* m = find_drum_material(dr.material);
     if (m == nullptr) {
       std::vector<std::string> keys;
       for (const auto& dm : drum_materials()) keys.push_back(in_quotes(dm.key));
-      fail(pos(*s.table->get("material")), "drum.material", written(*s.table->get("material")),
-           "unknown drum material; valid: " + join(keys));
+      bad_value(s, "material", "unknown drum material; valid: " + join(keys));
     }
     dr.density = m->density;
     dr.specific_heat = m->specific_heat;
@@ -575,20 +579,18 @@ class Reader {
           for (const auto& lm : lining_materials()) k.push_back(lm.key);
           return k;
         }());
-        fail(pos(*s.table->get("material")), "lining.material",
-             written(*s.table->get("material")),
-             "unknown lining material" +
-                 (suggestion.empty() ? std::string() : "; did you mean " + in_quotes(suggestion) + "?") +
-                 "; valid: " + join(keys) +
-                 "; or leave material out and give friction and pressure_limit");
+        bad_value(s, "material", "unknown lining material" +
+                  (suggestion.empty() ? std::string() : "; did you mean " + in_quotes(suggestion) + "?") +
+                  "; valid: " + join(keys) +
+                  "; or leave material out and give friction and pressure_limit");
       }
       li.material = m->key;
     }
 
     const std::optional<double> f = number(s, "friction", "friction = 0.35");
     if (f && !(*f > 0.0 && *f < 1.0)) {
-      fail(pos(*s.table->get("friction")), "lining.friction", written(*s.table->get("friction")),
-           "the coefficient of friction must lie between 0 and 1 (exclusive), e.g. 0.35");
+      bad_value(s, "friction",
+                "the coefficient of friction must lie between 0 and 1 (exclusive), e.g. 0.35");
     }
 
     std::optional<std::array<double, 2>> range;
@@ -629,11 +631,10 @@ class Reader {
         li.friction = *f;
         li.friction_source = "design file (nominal f); range: " + m->friction_source;
         if (*f < li.friction_min || *f > li.friction_max) {
-          fail(pos(*s.table->get("friction")), "lining.friction",
-               written(*s.table->get("friction")),
-               "lies outside the published range " + range_text(li.friction_min, li.friction_max) +
-                   " for \"" + m->key + "\"; give friction_range = [min, max] as well to "
-                   "override the range");
+          bad_value(s, "friction",
+                    "lies outside the published range " + range_text(li.friction_min, li.friction_max) +
+                    " for \"" + m->key + "\"; give friction_range = [min, max] as well to "
+                    "override the range");
         }
       }
     } else {
@@ -648,9 +649,8 @@ class Reader {
       li.friction_source = "design file";
     }
     if (li.friction < li.friction_min || li.friction > li.friction_max) {
-      fail(pos(*s.table->get("friction")), "lining.friction", written(*s.table->get("friction")),
-           "must lie within friction_range " +
-               range_text(li.friction_min, li.friction_max));
+      bad_value(s, "friction", "must lie within friction_range " +
+                range_text(li.friction_min, li.friction_max));
     }
 
     if (auto p = quantity(s, "pressure_limit", Quantity::stress)) {
@@ -663,9 +663,8 @@ class Reader {
     }
     if (auto t = quantity(s, "temperature_limit", Quantity::temperature)) {
       if (!(*t > 0.0)) {
-        fail(pos(*s.table->get("temperature_limit")), "lining.temperature_limit",
-             written(*s.table->get("temperature_limit")),
-             "a lining temperature limit must be above 0 °C, e.g. \"200 °C\"");
+        bad_value(s, "temperature_limit",
+                  "a lining temperature limit must be above 0 °C, e.g. \"200 °C\"");
       }
       li.temperature_limit = *t;
       li.temperature_source = "design file";
@@ -678,9 +677,8 @@ class Reader {
     li.thickness = required_quantity(s, "thickness", Quantity::length,
                                      "the radial lining thickness (\"0 mm\" for a bare band)");
     if (li.thickness < 0.0) {
-      fail(pos(*s.table->get("thickness")), "lining.thickness",
-           written(*s.table->get("thickness")),
-           "must not be negative; give \"0 mm\" for a bare band, e.g. \"5 mm\"");
+      bad_value(s, "thickness",
+                "must not be negative; give \"0 mm\" for a bare band, e.g. \"5 mm\"");
     }
   }
 
@@ -717,27 +715,21 @@ class Reader {
     Band& b = d_.band;
     b.width = positive(s, "width", Quantity::length, "the steel band width");
     if (b.width > d_.drum.width) {
-      fail(pos(*s.table->get("width")), "band.width", written(*s.table->get("width")),
-           "the band is wider than the drum face (" +
-               format_quantity(d_.drum.width, Quantity::length, UnitSystem::si) +
-               "); the band width must not exceed drum.width");
+      bad_value(s, "width", "the band is wider than the drum face (" +
+                format_quantity(d_.drum.width, Quantity::length, UnitSystem::si) +
+                "); the band width must not exceed drum.width");
     }
     b.thickness = positive(s, "thickness", Quantity::length, "the steel band thickness");
     b.allowable_stress = positive(s, "allowable_stress", Quantity::stress,
                                   "the allowable tensile stress of the band");
-    const auto sense = choice(s, "sense", {"cw", "ccw"});
-    if (!sense) {
-      missing(s, "sense", "the way the band runs from end A round the drum to end B: "
-                          "sense = \"cw\" or \"ccw\"");
-    }
-    b.sense = *sense == 0 ? Turn::cw : Turn::ccw;
+    b.sense = turn(s, "sense", "the way the band runs from end A round the drum to end B: "
+                               "sense = \"cw\" or \"ccw\"");
 
     if (is_concept) {
       for (const char* key : {"end_a", "end_b"}) {
-        if (const toml::node* n = node(s, key)) {
-          fail(pos(*n), s.path + "." + key, written(*n),
-               "a concept design has no pin coordinates: remove " + std::string(key) +
-                   ", or remove the [concept] section to describe the pin layout");
+        if (node(s, key) != nullptr) {
+          bad_value(s, key, "a concept design has no pin coordinates: remove " + std::string(key) +
+                    ", or remove the [concept] section to describe the pin layout");
         }
       }
     } else {
@@ -765,9 +757,8 @@ class Reader {
     b.clearance = kDefaultClearance;
     if (auto c = quantity(s, "clearance", Quantity::length)) {
       if (*c < 0.0) {
-        fail(pos(*s.table->get("clearance")), "band.clearance",
-             written(*s.table->get("clearance")),
-             "the radial release clearance must not be negative, e.g. \"1.5 mm\"");
+        bad_value(s, "clearance",
+                  "the radial release clearance must not be negative, e.g. \"1.5 mm\"");
       }
       b.clearance = *c;
     }
@@ -788,10 +779,9 @@ class Reader {
     Lever& l = d_.lever;
     if (is_concept) {
       for (const char* key : {"pivot", "handle"}) {
-        if (const toml::node* n = node(s, key)) {
-          fail(pos(*n), s.path + "." + key, written(*n),
-               "a concept design has no pin coordinates: remove " + std::string(key) +
-                   ", or remove the [concept] section to describe the pin layout");
+        if (node(s, key) != nullptr) {
+          bad_value(s, key, "a concept design has no pin coordinates: remove " + std::string(key) +
+                    ", or remove the [concept] section to describe the pin layout");
         }
       }
       // The lever section is optional here, but its bending check needs all three sizes.
@@ -808,9 +798,9 @@ class Reader {
       l.pivot = *pivot;
       l.handle = *handle;
       if (std::hypot(l.handle.x - l.pivot.x, l.handle.y - l.pivot.y) < 1e-6) {
-        fail(pos(*s.table->get("handle")), "lever.handle", written(*s.table->get("handle")),
-             "the handle is at the pivot, so the operator's force has no arm; put the handle "
-             "at the far end of the lever");
+        bad_value(s, "handle",
+                  "the handle is at the pivot, so the operator's force has no arm; put the handle "
+                  "at the far end of the lever");
       }
     }
     l.width = positive(s, "width", Quantity::length, "the lever plate width (in the view plane)");
@@ -826,9 +816,8 @@ class Reader {
     const auto torque = quantity(s, "torque", Quantity::torque);
     const auto force = quantity(s, "lever_force", Quantity::force);
     if (torque && force) {
-      fail(pos(*s.table->get("lever_force")), "load.lever_force",
-           written(*s.table->get("lever_force")),
-           "give either torque (solve the lever force) or lever_force (solve the torque), not both");
+      bad_value(s, "lever_force",
+                "give either torque (solve the lever force) or lever_force (solve the torque), not both");
     }
     if (!torque && !force) {
       fail(s.pos, "load", "",
@@ -846,9 +835,7 @@ class Reader {
     }
     if (auto sf = number(s, "service_factor", "service_factor = 1.25")) {
       if (!(*sf > 0.0)) {
-        fail(pos(*s.table->get("service_factor")), "load.service_factor",
-             written(*s.table->get("service_factor")),
-             "the service factor must be greater than zero, e.g. 1.25");
+        bad_value(s, "service_factor", "the service factor must be greater than zero, e.g. 1.25");
       }
       ld.service_factor = *sf;
     }
@@ -874,19 +861,18 @@ class Reader {
           speed = parse_quantity(str->get(), Quantity::linear_speed);
           hoist = true;
         } catch (const UnitParseError&) {
-          fail(pos(*speed_node), "duty.speed", written(*speed_node),
-               std::string(angular.what()) + " (or, for a hoist, a linear speed such as "
-               "\"0.5 m/s\")");
+          bad_value(s, "speed",
+                    std::string(angular.what()) + " (or, for a hoist, a linear speed such as "
+                    "\"0.5 m/s\")");
         }
       }
     } else {
-      fail(pos(*speed_node), "duty.speed", written(*speed_node),
-           "give the unit: an angular speed such as \"300 rpm\", or a hoist load's linear speed "
-           "such as \"0.5 m/s\"");
+      bad_value(s, "speed",
+                "give the unit: an angular speed such as \"300 rpm\", or a hoist load's linear speed "
+                "such as \"0.5 m/s\"");
     }
     if (!(speed > 0.0)) {
-      fail(pos(*speed_node), "duty.speed", written(*speed_node),
-           "the speed must be greater than zero, e.g. \"300 rpm\" or \"0.5 m/s\"");
+      bad_value(s, "speed", "the speed must be greater than zero, e.g. \"300 rpm\" or \"0.5 m/s\"");
     }
 
     if (hoist) {
@@ -900,19 +886,19 @@ class Reader {
       du.speed = du.hoist_speed / du.rope_radius;  // the drum speed that the hoist speed means
       if (auto i = quantity(s, "inertia", Quantity::inertia)) {
         if (*i < 0.0) {
-          fail(pos(*s.table->get("inertia")), "duty.inertia", written(*s.table->get("inertia")),
-               "the inertia must not be negative, e.g. " + quantity_examples(Quantity::inertia));
+          bad_value(s, "inertia",
+                    "the inertia must not be negative, e.g. " + quantity_examples(Quantity::inertia));
         }
         du.inertia = *i;
       }
     } else {
       du.speed = speed;
       for (const char* key : {"mass", "stop_distance", "rope_radius"}) {
-        if (const toml::node* n = node(s, key)) {
-          fail(pos(*n), s.path + "." + key, written(*n),
-               std::string(key) + " belongs to a hoist duty, whose speed is the load's linear "
-               "speed (e.g. speed = \"0.5 m/s\"); with an angular speed (" +
-                   written(*speed_node) + ") the duty is a rotating one: give inertia instead");
+        if (node(s, key) != nullptr) {
+          bad_value(s, key,
+                    std::string(key) + " belongs to a hoist duty, whose speed is the load's linear "
+                    "speed (e.g. speed = \"0.5 m/s\"); with an angular speed (" +
+                        written(*speed_node) + ") the duty is a rotating one: give inertia instead");
         }
       }
       du.inertia = positive(s, "inertia", Quantity::inertia,
@@ -951,8 +937,7 @@ class Reader {
                         : (*kind == 1 ? BrakeKind::differential : BrakeKind::summing);
     c.wrap = positive(s, "wrap", Quantity::angle, "the wrap angle");
     if (c.wrap >= 2.0 * std::numbers::pi) {
-      fail(pos(*s.table->get("wrap")), "concept.wrap", written(*s.table->get("wrap")),
-           "the wrap angle must be less than 360°, e.g. \"270°\"");
+      bad_value(s, "wrap", "the wrap angle must be less than 360°, e.g. \"270°\"");
     }
     c.handle_arm = positive(s, "handle_arm", Quantity::length,
                             "the perpendicular arm of the operator's force about the pivot");
@@ -960,9 +945,9 @@ class Reader {
                        "the perpendicular arm of end B about the pivot");
     if (c.kind == BrakeKind::simple) {
       if (auto a = quantity(s, "arm_a", Quantity::length); a && *a != 0.0) {
-        fail(pos(*s.table->get("arm_a")), "concept.arm_a", written(*s.table->get("arm_a")),
-             "in a simple brake end A is anchored at the pivot: arm_a must be \"0 mm\" or left "
-             "out (use kind = \"differential\" or \"summing\" for two arms)");
+        bad_value(s, "arm_a",
+                  "in a simple brake end A is anchored at the pivot: arm_a must be \"0 mm\" or left "
+                  "out (use kind = \"differential\" or \"summing\" for two arms)");
       }
       c.arm_a = 0.0;
       d_.band.end_a.mount = Mount::frame;

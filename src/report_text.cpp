@@ -197,17 +197,6 @@ void thermal(Out& o, const Solution& s) {
   if (t.mean_power > 0) o.row("mean power (duty)", o.q(t.mean_power, Quantity::power));
 }
 
-Quantity quantity_of_unit(const std::string& unit) {
-  if (unit == "Pa") return Quantity::stress;
-  if (unit == "N") return Quantity::force;
-  if (unit == "N*m" || unit == "N·m") return Quantity::torque;
-  if (unit == "m") return Quantity::length;
-  if (unit == "°C") return Quantity::temperature;
-  if (unit == "K") return Quantity::temperature_difference;
-  if (unit == "W/m^2" || unit == "W/m²") return Quantity::power_density;
-  return Quantity::dimensionless;
-}
-
 void checks(Out& o, const Solution& s) {
   o.heading("Checks");
   for (const Check& c : s.checks) {

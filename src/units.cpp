@@ -471,6 +471,21 @@ std::string format_quantity(double value, Quantity q, UnitSystem system, int dig
   return with_unit(number, display_unit(q, system));
 }
 
+Quantity quantity_of_unit(std::string_view u) {
+  if (u == "Pa") return Quantity::stress;
+  if (u == "N") return Quantity::force;
+  if (u == "N·m" || u == "N*m") return Quantity::torque;
+  if (u == "m") return Quantity::length;
+  if (u == "°C") return Quantity::temperature;
+  if (u == "K") return Quantity::temperature_difference;
+  if (u == "W/m²" || u == "W/m^2") return Quantity::power_density;
+  if (u == "W") return Quantity::power;
+  if (u == "J") return Quantity::energy;
+  if (u == "kg") return Quantity::mass;
+  if (u == "rad") return Quantity::angle;
+  return Quantity::dimensionless;
+}
+
 std::string quantity_name(Quantity q) { return info(q).name; }
 
 std::string quantity_examples(Quantity q) {

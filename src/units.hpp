@@ -44,6 +44,10 @@ double to_display(double value, Quantity q, UnitSystem system);
 /// "400 mm", "15.7 in": value in the display unit with `digits` significant figures.
 std::string format_quantity(double value, Quantity q, UnitSystem system, int digits = 4);
 
+/// The quantity of an SI unit symbol as a Check writes it ("Pa" → stress, "N·m" → torque, "°C"
+/// → temperature); dimensionless for any other text.
+Quantity quantity_of_unit(std::string_view si_unit);
+
 /// Human name of a quantity ("a length", "a force") and examples of valid input ("\"400 mm\"").
 std::string quantity_name(Quantity q);
 std::string quantity_examples(Quantity q);

@@ -1,51 +1,26 @@
 // The command line as a user meets it: exit statuses, messages that name the file, line and key,
 // the JSON contract, and every example solved. Runs the real executable.
 #include <gtest/gtest.h>
-#include <sys/wait.h>
 
-#include <cstdio>
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
 #include <sstream>
 #include <string>
 
+#include "tests/support.hpp"
+
 namespace fs = std::filesystem;
 
 namespace {
 
-struct Result {
-  int status = -1;
-  std::string out;
-  std::string err;
-};
+using bandforge::test::scratch_root;
+using bandforge::test::slurp;
+using Result = bandforge::test::ShellWithErr;
 
-fs::path scratch() {
-  fs::path dir = fs::temp_directory_path() / ("bandforge-cli-" + std::to_string(::getpid()));
-  fs::create_directories(dir);
-  return dir;
-}
-
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
+// `bandforge <args>`, as a user would type it.
 Result run(const std::string& args) {
-  const fs::path err = scratch() / "stderr.txt";
-  const std::string cmd = std::string(BANDFORGE_EXE) + " " + args + " 2>" + err.string();
-  Result r;
-  FILE* p = ::popen(cmd.c_str(), "r");
-  if (!p) return r;
-  char buf[4096];
-  std::size_t n;
-  while ((n = std::fread(buf, 1, sizeof buf, p)) > 0) r.out.append(buf, n);
-  const int st = ::pclose(p);
-  r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
-  r.err = slurp(err);
-  return r;
+  return bandforge::test::run_capturing_stderr(std::string(BANDFORGE_EXE) + " " + args);
 }
 
 const fs::path kExample = fs::path(BANDFORGE_SOURCE_DIR) / "examples" / "bin-hoist.toml";
@@ -56,7 +31,7 @@ fs::path example_with(const std::string& from, const std::string& to, const std:
   const auto at = text.find(from);
   EXPECT_NE(at, std::string::npos) << "example no longer contains: " << from;
   if (at != std::string::npos) text.replace(at, from.size(), to);
-  const fs::path p = scratch() / (name + ".toml");
+  const fs::path p = scratch_root() / (name + ".toml");
   std::ofstream(p, std::ios::binary) << text;
   return p;
 }
@@ -151,7 +126,7 @@ TEST(Cli, EveryExampleSolves) {
 TEST(Cli, StarterDesignSolves) {
   const Result made = run("new");
   ASSERT_EQ(made.status, 0) << made.err;
-  const fs::path p = scratch() / "starter.toml";
+  const fs::path p = scratch_root() / "starter.toml";
   std::ofstream(p, std::ios::binary) << made.out;
   const Result r = run("solve " + p.string());
   EXPECT_EQ(r.status, 0) << r.err;
@@ -277,13 +252,13 @@ TEST(BadInput, TorqueAndLeverForceBothGiven) {
 }
 
 TEST(BadInput, GarbageNeverCrashes) {
-  const fs::path p = scratch() / "garbage.toml";
+  const fs::path p = scratch_root() / "garbage.toml";
   std::string junk;
   for (int i = 0; i < 4096; ++i) junk.push_back(static_cast<char>((i * 7919) % 256));
   std::ofstream(p, std::ios::binary) << junk;
   const Result r = run("solve " + p.string());
   EXPECT_EQ(r.status, 2) << r.err;
-  const fs::path empty = scratch() / "empty.toml";
+  const fs::path empty = scratch_root() / "empty.toml";
   std::ofstream(empty, std::ios::binary) << "";
   EXPECT_EQ(run("solve " + empty.string()).status, 2);
 }

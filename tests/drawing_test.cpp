@@ -1,9 +1,6 @@
 // The PDF drawing, checked by independent readers: poppler (pdfinfo, pdffonts, pdftotext,
 // pdftoppm), qpdf, and `bandforge solve --json` for the values. Sheet sizes come from ISO 216
 // (REFERENCE §5.1) converted to points here, not from the drawing code.
-#include <sys/wait.h>
-#include <unistd.h>
-
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
@@ -25,6 +22,7 @@
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
+#include "tests/support.hpp"
 
 namespace bandforge::drawing {
 namespace {
@@ -34,51 +32,15 @@ namespace fs = std::filesystem;
 const std::string kSource = BANDFORGE_SOURCE_DIR;
 const std::string kExample = kSource + "/examples/bin-hoist.toml";
 
-fs::path scratch_root() {
-  return fs::temp_directory_path() / ("bandforge-drawing-test-" + std::to_string(::getpid()));
-}
-
-class Scratch : public testing::Environment {
- public:
-  void TearDown() override {
-    std::error_code ec;
-    fs::remove_all(scratch_root(), ec);
-  }
-};
-const auto* const kScratch = testing::AddGlobalTestEnvironment(new Scratch);
-
-fs::path scratch(const std::string& name) {
-  fs::create_directories(scratch_root());
-  return scratch_root() / name;
-}
-
-struct Shell {
-  int status = -1;
-  std::string out;
-};
+using test::scratch_root;
+using test::slurp;
+using test::Shell;
 
 // Runs a shell command, stdout captured, stderr discarded (poppler warns about libharu's
 // ToUnicode CMap on every call; TOOLCHAIN.md).
-Shell run(const std::string& cmd) {
-  Shell r;
-  FILE* p = ::popen((cmd + " 2>/dev/null").c_str(), "r");
-  if (!p) return r;
-  char buf[4096];
-  size_t n;
-  while ((n = std::fread(buf, 1, sizeof buf, p)) > 0) r.out.append(buf, n);
-  const int st = ::pclose(p);
-  r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
-  return r;
-}
+Shell run(const std::string& cmd) { return test::run(cmd + " 2>/dev/null"); }
 
 std::string quote(const fs::path& p) { return "'" + p.string() + "'"; }
-
-std::string read_bytes(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
 
 // One drawn design: the model built once per design and kept for the tests that share it.
 struct Drawn {
@@ -103,7 +65,7 @@ std::unique_ptr<Drawn> draw(const std::string& design_file, const std::string& o
     d->released = std::make_unique<geom::BrakeModel>(geom::build_brake(d->design, d->solution, rel));
     d->cut = geom::cut_list(d->design, d->solution, *d->applied);
   }
-  d->pdf = scratch(out_name);
+  d->pdf = scratch_root() / out_name;
   d->plan = write_drawing(d->design, d->solution, d->applied.get(), d->released.get(), d->cut, units,
                           d->pdf.string());
   return d;
@@ -380,7 +342,7 @@ struct Gray {
 };
 
 Gray render(const fs::path& pdf, int page, int dpi) {
-  const fs::path stem = scratch("render-" + std::to_string(page) + "-" + std::to_string(dpi));
+  const fs::path stem = scratch_root() / ("render-" + std::to_string(page) + "-" + std::to_string(dpi));
   const Shell r = run("pdftoppm -gray -r " + std::to_string(dpi) + " -f " + std::to_string(page) + " -l " +
                     std::to_string(page) + " -singlefile " + quote(pdf) + " " + quote(stem));
   Gray g;
@@ -456,26 +418,26 @@ TEST(DrawingRender, TitleBlockIsClearOfViewGeometry) {
 
 TEST(DrawingOutput, SameInputGivesTheSameBytes) {
   const Drawn& d = example();
-  const fs::path again = scratch("again.pdf");
+  const fs::path again = scratch_root() / "again.pdf";
   write_drawing(d.design, d.solution, d.applied.get(), d.released.get(), d.cut, UnitSystem::si,
                 again.string());
-  EXPECT_EQ(read_bytes(d.pdf), read_bytes(again));
+  EXPECT_EQ(slurp(d.pdf), slurp(again));
   // No clock time in the file (libharu writes no CreationDate/ID unless asked).
-  const std::string bytes = read_bytes(d.pdf);
+  const std::string bytes = slurp(d.pdf);
   EXPECT_EQ(bytes.find("/CreationDate"), std::string::npos);
   EXPECT_EQ(bytes.find("/ModDate"), std::string::npos);
   EXPECT_EQ(bytes.find("/ID"), std::string::npos);
 }
 
 TEST(DrawingOutput, BuildCommandWritesTheSamePdfInTwoProcesses) {
-  const fs::path a = scratch("proc-a"), b = scratch("proc-b");
+  const fs::path a = scratch_root() / "proc-a", b = scratch_root() / "proc-b";
   const std::string exe = BANDFORGE_EXE;
   ASSERT_EQ(run(exe + " build " + quote(kExample) + " -o " + quote(a)).status, 0);
   ASSERT_EQ(run(exe + " build " + quote(kExample) + " -o " + quote(b)).status, 0);
   const std::string number = example().design.project.number;
   ASSERT_TRUE(fs::exists(a / (number + ".pdf")));
-  EXPECT_EQ(read_bytes(a / (number + ".pdf")), read_bytes(b / (number + ".pdf")));
-  EXPECT_EQ(read_bytes(a / (number + ".pdf")), read_bytes(example().pdf));
+  EXPECT_EQ(slurp(a / (number + ".pdf")), slurp(b / (number + ".pdf")));
+  EXPECT_EQ(slurp(a / (number + ".pdf")), slurp(example().pdf));
 }
 
 TEST(DrawingOutput, LayoutThatCannotFitNamesSheetAndScale) {
@@ -483,7 +445,7 @@ TEST(DrawingOutput, LayoutThatCannotFitNamesSheetAndScale) {
   d.drawing.sheet = "A4";
   d.drawing.scale_num = 1;
   d.drawing.scale_den = 1;  // a 1 m brake at full size on A4
-  const fs::path out = scratch("nofit.pdf");
+  const fs::path out = scratch_root() / "nofit.pdf";
   try {
     write_drawing(d, example().solution, example().applied.get(), example().released.get(), example().cut,
                   UnitSystem::si, out.string());
@@ -499,7 +461,7 @@ TEST(DrawingOutput, LayoutThatCannotFitNamesSheetAndScale) {
 }
 
 TEST(DrawingOutput, UnwritablePathIsAnIoErrorAndLeavesNothing) {
-  const fs::path out = scratch("no-such-dir") / "x.pdf";
+  const fs::path out = scratch_root() / "no-such-dir" / "x.pdf";
   EXPECT_THROW(write_drawing(example().design, example().solution, example().applied.get(),
                              example().released.get(), example().cut, UnitSystem::si, out.string()),
                IoError);
@@ -550,7 +512,7 @@ struct CsvRow {
 };
 
 std::vector<CsvRow> read_cutlist(const fs::path& csv) {
-  const auto records = parse_csv(read_bytes(csv));
+  const auto records = parse_csv(slurp(csv));
   std::vector<CsvRow> rows;
   if (records.empty()) return rows;
   for (size_t r = 1; r < records.size(); ++r) {
@@ -595,7 +557,7 @@ struct Built {
 
 Built build_example(const std::string& dir, const std::string& units) {
   Built b;
-  const fs::path out = scratch(dir);
+  const fs::path out = scratch_root() / dir;
   const Shell r = run(std::string(BANDFORGE_EXE) + " build " + quote(kExample) + " --units " + units + " -o " + quote(out));
   EXPECT_EQ(r.status, 0) << r.out;
   b.pdf = out / (example().design.project.number + ".pdf");
@@ -672,7 +634,7 @@ TEST(DrawingCutList, EveryRowOfCutlistCsvIsOnTheCalculationSheet) {
   // Not on the assembly sheet: the table belongs to the calculation sheet.
   EXPECT_EQ(text_of(b.pdf, 1).find("BAND-BLANK"), std::string::npos);
   // The in-process drawing (cut_list() of the test's model) gives the same bytes as `build`.
-  EXPECT_EQ(read_bytes(b.pdf), read_bytes(example().pdf));
+  EXPECT_EQ(slurp(b.pdf), slurp(example().pdf));
 }
 
 TEST(DrawingCutList, UsUnitsGiveInchesAndPounds) {
@@ -685,7 +647,7 @@ TEST(DrawingCutList, UsUnitsGiveInchesAndPounds) {
 }
 
 TEST(DrawingCutList, ConceptDesignHasNoCutList) {
-  const fs::path out = scratch("cut-concept");
+  const fs::path out = scratch_root() / "cut-concept";
   const std::string design = kSource + "/examples/concept-differential.toml";
   ASSERT_EQ(run(std::string(BANDFORGE_EXE) + " build " + quote(design) + " -o " + quote(out)).status, 0);
   EXPECT_FALSE(fs::exists(out / "fab"));

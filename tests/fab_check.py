@@ -375,18 +375,24 @@ def check_example(exe, design_path, work):
           f"{stem}: second build differs: {mismatch + errors}")
 
 
+def with_lining_thickness(design_path, thickness, path):
+    """Writes the design with its [lining] thickness set to `thickness` to `path`; False if it has none."""
+    text = open(design_path, encoding="utf-8").read()
+    new, n = re.subn(r'(\[lining\][^\[]*?thickness\s*=\s*)"[^"]*"', lambda m: m.group(1) + f'"{thickness}"', text)
+    if not check(n == 1, f"{design_path}: no [lining] thickness to replace"):
+        return False
+    open(path, "w", encoding="utf-8").write(new)
+    return True
+
+
 def check_refusal(exe, design_path, work):
     """A lining that cannot be rolled flat: exit 3, a clear message, and no output at all."""
-    text = open(design_path, encoding="utf-8").read()
-    design = tomllib.loads(text)
+    design = tomllib.loads(open(design_path, encoding="utf-8").read())
     r = mm(design["drum"]["diameter"]) / 2
     # 0.1 r thick: face strain 0.1r / (2 * 1.05r) = 4.8 % > the stated 3 % limit.
-    thick = f"{0.1 * r:.3f} mm"
-    new, n = re.subn(r'(\[lining\][^\[]*?thickness\s*=\s*)"[^"]*"', lambda m: m.group(1) + f'"{thick}"', text)
-    if not check(n == 1, f"{design_path}: no [lining] thickness to replace"):
-        return
     bad = os.path.join(work, "thick-lining.toml")
-    open(bad, "w", encoding="utf-8").write(new)
+    if not with_lining_thickness(design_path, f"{0.1 * r:.3f} mm", bad):
+        return
     out = os.path.join(work, "thick-lining")
     shutil.rmtree(out, ignore_errors=True)
     p = run([exe, "build", bad, "-o", out], expect=3)
@@ -399,12 +405,9 @@ def check_refusal(exe, design_path, work):
 
 def check_stale(exe, design_path, work):
     """Rebuilding into the same folder a design without a lining drops the old lining blank."""
-    text = open(design_path, encoding="utf-8").read()
-    new, n = re.subn(r'(\[lining\][^\[]*?thickness\s*=\s*)"[^"]*"', lambda m: m.group(1) + '"0 mm"', text)
-    if not check(n == 1, f"{design_path}: no [lining] thickness to replace"):
-        return
     bare = os.path.join(work, "bare-band.toml")
-    open(bare, "w", encoding="utf-8").write(new)
+    if not with_lining_thickness(design_path, "0 mm", bare):
+        return
     out = os.path.join(work, "rebuilt")
     shutil.rmtree(out, ignore_errors=True)
     run([exe, "build", design_path, "-o", out])

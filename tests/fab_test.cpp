@@ -4,7 +4,6 @@
 // solids; stadium-shaped plates also by hand; refusals leave no fab/ folder; bytes reproducible.
 // The DXF files themselves are read by an independent reader (ezdxf) in tests/fab_check.py.
 #include <gtest/gtest.h>
-#include <unistd.h>
 
 #include <algorithm>
 #include <cmath>
@@ -21,10 +20,13 @@
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
+#include "tests/support.hpp"
 
 namespace fs = std::filesystem;
 using namespace bandforge;
 using namespace bandforge::geom;
+using bandforge::test::fresh_dir;
+using bandforge::test::slurp;
 
 namespace {
 
@@ -41,13 +43,6 @@ Built build(const Design& d, const std::string& name) {
   Solution s = solve(d);
   BrakeModel m = build_brake(d, s, BuildOptions{});
   return {name, d, s, std::move(m)};
-}
-
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
 }
 
 // Every example with a pin layout ([concept] designs have no solids to flatten).
@@ -85,14 +80,6 @@ const PartInfo* info(const BrakeModel& m, const std::string& name) {
     if (p.name == name) return &p;
   }
   return nullptr;
-}
-
-fs::path scratch(const std::string& name) {
-  const fs::path dir =
-      fs::temp_directory_path() / ("bandforge-fab-" + std::to_string(::getpid()) + "-" + name);
-  fs::remove_all(dir);
-  fs::create_directories(dir);
-  return dir;
 }
 
 // The eye-joint lap by the rule stated on the band blank's NOTES layer (common practice, no
@@ -429,7 +416,7 @@ TEST(FabPack, CutListMatchesTheSolids) {
 
 TEST(FabPack, WritesOneDxfPerFlatPartAndTheCutList) {
   const Built& b = examples().front();
-  const fs::path out = scratch("write");
+  const fs::path out = fresh_dir("write");
   write_fab_pack(b.design, b.solution, b.model, out.string(), DxfVersion::r2000);
   const FabPack pack = make_fab_pack(b.design, b.solution, b.model);
   std::vector<std::string> names;
@@ -451,13 +438,12 @@ TEST(FabPack, WritesOneDxfPerFlatPartAndTheCutList) {
   EXPECT_EQ(r12.find("  9\n$INSUNITS"), std::string::npos);  // no header variable
   EXPECT_NE(r12.find("R12 has no $INSUNITS"), std::string::npos);
   EXPECT_EQ(r12.find("LWPOLYLINE"), std::string::npos);
-  fs::remove_all(out);
 }
 
 TEST(FabPack, SameInputSameBytes) {
   for (const Built& b : examples()) {
     for (DxfVersion v : {DxfVersion::r2000, DxfVersion::r12}) {
-      const fs::path one = scratch("one"), two = scratch("two");
+      const fs::path one = fresh_dir("one"), two = fresh_dir("two");
       write_fab_pack(b.design, b.solution, b.model, one.string(), v);
       write_fab_pack(b.design, b.solution, b.model, two.string(), v);
       int files = 0;
@@ -466,8 +452,6 @@ TEST(FabPack, SameInputSameBytes) {
         ++files;
       }
       EXPECT_GE(files, 4);
-      fs::remove_all(one);
-      fs::remove_all(two);
     }
   }
 }
@@ -477,7 +461,7 @@ TEST(FabPack, LiningTooThickToRollIsRefusedAndLeavesNoFabFolder) {
   // 20 mm on a 400 mm drum: face strain 20 / (2 × 210) = 4.8 % > 3 % (the stated limit,
   // common practice, no source). The solids still build: only the flat pattern is impossible.
   const Built b = build(example_with("thickness = \"5 mm\"", "thickness = \"20 mm\""), "thick");
-  const fs::path out = scratch("thick");
+  const fs::path out = fresh_dir("thick");
   const std::string msg = refusal(b, out);
   EXPECT_NE(msg.find("lining"), std::string::npos) << msg;
   EXPECT_NE(msg.find("lining.thickness = 20 mm"), std::string::npos) << msg;
@@ -492,17 +476,15 @@ TEST(FabPack, LiningTooThickToRollIsRefusedAndLeavesNoFabFolder) {
   refusal(b, out);
   EXPECT_EQ(slurp(out / "fab" / "band-blank.dxf"), before);
   EXPECT_FALSE(fs::exists(out / ".fab.partial"));
-  fs::remove_all(out);
 }
 
 TEST(FabPack, PinTooSmallToFormTheEyeIsRefused) {
   // A 4 mm pin gives the eye an inside bend radius of 2 mm under a 3 mm band (< one thickness).
   const Built b = build(example_with("pin_diameter = \"16 mm\"", "pin_diameter = \"4 mm\""), "pin");
-  const fs::path out = scratch("pin");
+  const fs::path out = fresh_dir("pin");
   const std::string msg = refusal(b, out);
   EXPECT_NE(msg.find("band.pin_diameter"), std::string::npos) << msg;
   EXPECT_FALSE(fs::exists(out / "fab"));
-  fs::remove_all(out);
 }
 
 TEST(FabPack, BareBandHasNoLiningBlankAndAThinLiningIsBonded) {
@@ -523,10 +505,9 @@ TEST(FabPack, BareBandHasNoLiningBlankAndAThinLiningIsBonded) {
 
 TEST(FabPack, UnwritableOutputIsAnIoError) {
   const Built& b = examples().front();
-  const fs::path dir = scratch("io");
+  const fs::path dir = fresh_dir("io");
   const fs::path file = dir / "not-a-folder";
   std::ofstream(file) << "x";
   EXPECT_THROW(write_fab_pack(b.design, b.solution, b.model, file.string(), DxfVersion::r2000),
                IoError);
-  fs::remove_all(dir);
 }

@@ -4,9 +4,7 @@
 // the code under test.
 #include <cmath>
 #include <filesystem>
-#include <fstream>
 #include <numbers>
-#include <sstream>
 #include <string>
 
 #include <gtest/gtest.h>
@@ -31,6 +29,7 @@
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
 #include "src/proportions.hpp"
+#include "tests/support.hpp"
 
 namespace bandforge::geom {
 namespace {
@@ -38,16 +37,9 @@ namespace {
 constexpr double pi = std::numbers::pi;
 const std::string kExample = std::string(BANDFORGE_SOURCE_DIR) + "/examples/bin-hoist.toml";
 
-std::string example_text() {
-  std::ifstream in(kExample);
-  std::stringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
-
 // The example with one line replaced (the line must exist, or the test would prove nothing).
 std::string edited(const std::string& from, const std::string& to) {
-  std::string text = example_text();
+  std::string text = test::slurp(kExample);
   const std::size_t at = text.find(from);
   EXPECT_NE(at, std::string::npos) << from;
   if (at != std::string::npos) text.replace(at, from.size(), to);

@@ -1,17 +1,12 @@
 // The STEP export, checked by an independent reader (OCCT's STEPCAFControl_Reader into a fresh
 // XCAF document) and by reading the Part 21 text itself; reproducibility across processes; the
 // build command's exit statuses and its promise of no partial outputs.
-#include <sys/wait.h>
-
-#include <array>
-#include <cstdio>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <map>
 #include <regex>
 #include <set>
-#include <sstream>
 #include <string>
 #include <thread>
 #include <vector>
@@ -44,6 +39,7 @@
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
+#include "tests/support.hpp"
 
 namespace bandforge::geom {
 namespace {
@@ -53,33 +49,9 @@ namespace fs = std::filesystem;
 const std::string kSource = BANDFORGE_SOURCE_DIR;
 const std::string kExample = kSource + "/examples/bin-hoist.toml";
 
-fs::path scratch_root() {
-  return fs::temp_directory_path() / ("bandforge-step-test-" + std::to_string(::getpid()));
-}
-
-// Removes this run's scratch files when the test program ends.
-class Scratch : public testing::Environment {
- public:
-  void TearDown() override {
-    std::error_code ec;
-    fs::remove_all(scratch_root(), ec);
-  }
-};
-const testing::Environment* const scratch = testing::AddGlobalTestEnvironment(new Scratch);
-
-fs::path fresh_dir(const std::string& name) {
-  const fs::path p = scratch_root() / name;
-  fs::remove_all(p);
-  fs::create_directories(p);
-  return p;
-}
-
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::stringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
+using test::fresh_dir;
+using test::run;
+using test::slurp;
 
 std::string name_of(const TDF_Label& l) {
   Handle(TDataStd_Name) n;
@@ -91,18 +63,6 @@ double volume(const TopoDS_Shape& s) {
   GProp_GProps g;
   BRepGProp::VolumeProperties(s, g);
   return g.Mass();
-}
-
-// Runs a shell command; returns (exit status, stdout).
-std::pair<int, std::string> run(const std::string& cmd) {
-  std::string out;
-  FILE* p = ::popen(cmd.c_str(), "r");
-  if (p == nullptr) return {-1, ""};
-  std::array<char, 4096> buf;
-  std::size_t n;
-  while ((n = std::fread(buf.data(), 1, buf.size(), p)) > 0) out.append(buf.data(), n);
-  const int status = ::pclose(p);
-  return {WIFEXITED(status) ? WEXITSTATUS(status) : -1, out};
 }
 
 struct Written {
@@ -293,7 +253,7 @@ TEST(StepExport, SameInputSameBytesInTwoProcesses) {
   // The environment's SOURCE_DATE_EPOCH does not override the design's own date.
   const fs::path three = fresh_dir("run3");
   ASSERT_EQ(run("SOURCE_DATE_EPOCH=86400 '" + exe + "' build '" + kExample + "' -o '" +
-                three.string() + "'").first, 0);
+                three.string() + "'").status, 0);
   EXPECT_TRUE(slurp(three / "KFW-2207-BR.step") == a);
 }
 

@@ -11,23 +11,14 @@
 #include "geometry/brake_model.hpp"
 #include "geometry/flat_patterns.hpp"
 #include "geometry/projection.hpp"
-#include "src/design_reader.hpp"
 #include "src/mechanics.hpp"
+#include "tests/bench/example.hpp"
 
 namespace {
 
 using namespace bandforge;
-
-const Design& example() {
-  static const Design d =
-      read_design_file(std::string(BANDFORGE_SOURCE_DIR) + "/examples/bin-hoist.toml");
-  return d;
-}
-
-const Solution& solution() {
-  static const Solution s = solve(example());
-  return s;
-}
+using bench::example;
+using bench::solution;
 
 const geom::BrakeModel& applied() {
   static const geom::BrakeModel m = geom::build_brake(example(), solution(), {});

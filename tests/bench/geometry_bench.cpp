@@ -8,23 +8,14 @@
 
 #include "geometry/assemble.hpp"
 #include "geometry/brake_model.hpp"
-#include "src/design_reader.hpp"
 #include "src/mechanics.hpp"
+#include "tests/bench/example.hpp"
 
 namespace {
 
 using namespace bandforge;
-
-const Design& example() {
-  static const Design d =
-      read_design_file(std::string(BANDFORGE_SOURCE_DIR) + "/examples/bin-hoist.toml");
-  return d;
-}
-
-const Solution& solution() {
-  static const Solution s = solve(example());
-  return s;
-}
+using bench::example;
+using bench::solution;
 
 std::string scratch_step() {
   return (std::filesystem::temp_directory_path() / "bandforge-geometry-bench.step").string();
