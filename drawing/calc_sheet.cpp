@@ -160,12 +160,12 @@ std::vector<std::string> method_items(const Design& d, const Solution& s) {
   m.push_back(std::string("Band on drum: a flexible band slipping over the whole wrap; the tensions "
                           "follow the capstan (Euler–Eytelwein) relation ") +
               (thick ? "P1/P2 = e^(f·φ·r/r_b) and T = (P1 − P2)·r_b (thick band, line of action "
-                       "at r_b = r + t_lining + t/2, REFERENCE §1.11)."
-                     : "P1/P2 = e^(f·φ) and T = (P1 − P2)·r (thin band, REFERENCE §1.1–1.2)."));
+                       "at r_b = r + t_lining + t/2, friction at r: element equilibrium, derived here)."
+                     : "P1/P2 = e^(f·φ) and T = (P1 − P2)·r (thin band; Mott, Machine Elements in Mechanical Design, 4th ed., eq. 22-26; Machinery's Handbook, 31st ed., p. 2535)."));
   if (s.layout.from_pins) {
     m.push_back("Layout from the pins: each free run leaves the band circle r_b tangentially, "
                 "β = ψ ± acos(r_b/d) from a pin at distance d and polar angle ψ; the wrap φ is the "
-                "angle between the two tangent points (REFERENCE §1.8).");
+                "angle between the two tangent points (plane geometry of tangents to a circle).");
     m.push_back("Lever statics: moments about the pivot O. Each run pulls its pin along the run "
                 "line, so its arm is the signed perpendicular distance m = (E − O) × u, not the "
                 "pin offset. The lever turns in the sense σ = −sign(m_A + m_B) to tighten the band; "
@@ -180,13 +180,13 @@ std::vector<std::string> method_items(const Design& d, const Solution& s) {
                   : "Lever force given: P2 = F·L/(−(e^(f·φ)·m'_t + m'_s)), P1 = e^(f·φ)·P2, "
                     "T = (P1 − P2)·r.");
   m.push_back("Self-locking when e^(f·φ)·m'_t + m'_s ≥ 0: the band then applies itself "
-              "(REFERENCE §1.7); the critical friction is f = ln(−m'_s/m'_t)/φ.");
+              "(Machinery's Handbook, 31st ed., p. 2535, Fig. 3, in its general form); the critical friction is f = ln(−m'_s/m'_t)/φ.");
   m.push_back("Lining pressure p(θ) = P(θ)/(b·r), P(θ) = P2·e^(f·θ) from the slack end, largest at "
-              "the tight end: p_max = P1/(b·r) (REFERENCE §1.3). Band stress σ = P1/(b·t), gross "
-              "section (§1.4); pin in double shear τ = P1/(2·π·d²/4); lever bending σ = M/Z at the "
+              "the tight end: p_max = P1/(b·r) (Mott, 4th ed., eq. 22-27). Band stress σ = P1/(b·t), gross "
+              "section; pin in double shear τ = P1/(2·π·d²/4); lever bending σ = M/Z at the "
               "net section, Z = t·(w³ − d³)/(6·w).");
   if (s.thermal.present) {
-    m.push_back("Thermal (REFERENCE §2): energy per stop E = m·g·s + ½·m·v² + ½·I·ω²; the drum rim "
+    m.push_back("Thermal (Bhandari Ex. 12.14; Jindal Ex. 23-1, 23-5): energy per stop E = m·g·s + ½·m·v² + ½·I·ω²; the drum rim "
                 "absorbs it, ΔT = E/(m_rim·c); power per lining area q = E/(t_stop·b·r·φ), peak "
                 "2 × mean at the start of a uniform stop.");
   }

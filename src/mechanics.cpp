@@ -132,7 +132,7 @@ Layout concept_layout(const Design& d) {
   L.sense = turn_sign(d.band.sense);
   if (!(c.wrap >= kMinWrap && c.wrap <= kMaxWrap)) {
     design_fail(d, "concept.wrap", degrees(c.wrap),
-                "the wrap angle must lie between 5° and 355° (270° is usual, REFERENCE §3)");
+                "the wrap angle must lie between 5° and 355° (270° is usual: Neale, The Tribology Handbook, section B8)");
   }
   if (!(c.handle_arm >= 1e-6)) {
     design_fail(d, "concept.handle_arm", mm(c.handle_arm),
@@ -528,7 +528,7 @@ void add_checks(const Design& d, Solution& s) {
     const DirectionResult& r = s.results[s.primary_a_tight ? 0 : 1][0];
     s.checks.push_back(make_check(
         "hand_force", "Operator force at the handle", r.lever_force, kHandForceLimit, "N", true,
-        "common practice, no source: 150–250 N regular, up to ~350 N occasional (REFERENCE §3)",
+        "common practice, no source: 150–250 N regular, up to ~350 N occasional",
         case_note(L, r)));
   }
   if (L.kind == BrakeKind::differential) {
@@ -540,7 +540,7 @@ void add_checks(const Design& d, Solution& s) {
     s.checks.push_back(make_check(
         "self_lock_margin", "Differential: slack arm over tight arm × e^(f_max·φ)",
         as / (at * r.capstan_ratio), kSelfLockMargin, "1", false,
-        "common practice, no source: a_s ≥ 1.2…1.5 × a_t·e^(f_max·φ) (REFERENCE §1.7)",
+        "common practice, no source: a_s ≥ 1.2…1.5 × a_t·e^(f_max·φ) for a controllable differential brake",
         case_note(L, r)));
   }
   const Thermal& th = s.thermal;
@@ -550,7 +550,7 @@ void add_checks(const Design& d, Solution& s) {
         torque_mode ? s.required_torque : s.results[s.primary_a_tight ? 0 : 1][0].torque;
     s.checks.push_back(make_check("hoist_torque", "Brake torque holds the hoist load",
                                   design_torque, holding, "N·m", false,
-                                  "statics: holding torque m·g·r_rope (REFERENCE §2.1)",
+                                  "statics: holding torque m·g·r_rope",
                                   torque_mode ? "required torque × service factor"
                                               : case_note(L, s.results[s.primary_a_tight ? 0 : 1][0])));
   }
@@ -587,7 +587,7 @@ void add_warnings(const Design& d, Solution& s) {
     s.warnings.push_back("operator force " + fmt("%.0f N", prim.lever_force) + " (" +
                          case_note(L, prim) +
                          ") is above the 250 N a hand gives regularly (common practice, "
-                         "REFERENCE §3)");
+                         "no source)");
   }
   const DirectionResult& p = s.primary();
   const DirectionResult& q = s.nominal(!s.primary_a_tight);
@@ -613,7 +613,7 @@ void add_warnings(const Design& d, Solution& s) {
       s.warnings.push_back(
           "the band's line of action is " + mm(L.r_band - L.r) +
           " outside the friction surface: the thick-band model (band model = \"thick\", "
-          "REFERENCE §1.11) changes the " + (torque_mode ? "lever force" : "torque") + " by " +
+          "tension at r_b, friction at r) changes the " + (torque_mode ? "lever force" : "torque") + " by " +
           fmt("%+.1f %%", 100.0 * (alt / base - 1.0)));
     }
   }
