@@ -1,5 +1,5 @@
-// `bandforge build design.toml -o OUTDIR [--released] [--json]`: solids, checks and the STEP
-// assembly (+ the PDF drawing and the fab/ flat patterns when those land).
+// `bandforge build design.toml -o OUTDIR [--released] [--json] [--units] [--dxf-version]`: solids,
+// checks and the STEP assembly, the PDF drawing and calculation sheet, and the fab/ flat patterns.
 // Outputs are written into a staging directory inside OUTDIR and moved into place only when
 // every step has succeeded, so a failed build leaves no partial files behind.
 #include <unistd.h>
@@ -304,8 +304,8 @@ void run_build(const BuildCommand&) {
 void setup_build(CLI::App& app) {
   auto cmd = std::make_shared<BuildCommand>();
   auto* sub = app.add_subcommand(
-      "build", "Build the solids, check them and write OUTDIR/<number>.step (drawing and flat "
-               "patterns when available)");
+      "build", "Build and check the solids; write OUTDIR/<number>.step, OUTDIR/<number>.pdf "
+               "and the flat patterns in OUTDIR/fab/");
   sub->add_option("design", cmd->design, "design file (TOML)")->required();
   sub->add_option("-o,--out", cmd->out_dir, "output directory (created if missing)")->required();
   sub->add_flag("--released", cmd->released,
