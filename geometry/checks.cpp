@@ -140,9 +140,21 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool inte
         c.distance = d.Value();
       }
     }
-    // Parts apart by more than the clearance share no volume: skip the boolean.
-    c.common_volume = c.distance > least_clearance ? 0.0
-                                                    : common_volume(placed[i].shape, placed[j].shape);
+    // Parts apart by more than the clearance share no volume: skip the boolean. An envelope
+    // contains its shape, so the overlap with the envelope bounds the true overlap from above:
+    // when the bound is within tolerance the exact boolean is not needed (for the drum, whose
+    // web and hub make the boolean about twice as slow); otherwise the true overlap is measured.
+    if (c.distance > least_clearance) {
+      c.common_volume = 0.0;
+    } else {
+      const bool simplified = !m.parts[placed[i].part].envelope.IsNull() ||
+                              !m.parts[placed[j].part].envelope.IsNull();
+      c.common_volume = simplified ? common_volume(envelope(i), envelope(j))
+                                   : common_volume(placed[i].shape, placed[j].shape);
+      if (simplified && c.common_volume > c.tolerance) {
+        c.common_volume = common_volume(placed[i].shape, placed[j].shape);
+      }
+    }
     c.ok = c.common_volume <= c.tolerance && (c.intended || c.distance >= c.min_distance);
   }
 }

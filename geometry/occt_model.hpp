@@ -49,8 +49,8 @@ struct BrakeModel::Impl {
     PartKind kind = PartKind::drum;
     TopoDS_Shape shape;     ///< a single valid solid in part coordinates [mm]
     /// A simpler solid that contains `shape` (same coordinates), used for clearance distances
-    /// (the drum: its outer cylinder); null = the shape itself. Overlaps are always measured
-    /// on `shape`.
+    /// (the drum: its outer cylinder); null = the shape itself. An overlap is reported as
+    /// measured on `shape`; the envelope only lets a passing contact skip the exact boolean.
     TopoDS_Shape envelope;
   };
   /// One placement of a part (one STEP instance, NAUO).

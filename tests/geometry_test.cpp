@@ -323,6 +323,35 @@ TEST(Checks, AnOversizePinInItsHoleIsMeasuredAsOverlap) {
   }
 }
 
+TEST(Checks, ADrumTooLargeForItsLiningIsMeasuredAsOverlap) {
+  // The drum's contacts first go through its envelope (an upper bound on the overlap); a failing
+  // bound must be re-measured on the true shape. A plain drum 0.1 mm over the friction radius
+  // overlaps the lining by the annular sector φ/2·((r+0.1)² − r²)·b (hand computation, φ from
+  // the mechanics).
+  const Design d = read_design_file(kExample);
+  const Solution sol = solve(d);
+  Built x = build(d, false, false);
+  BrakeModel::Impl& m = x.model.impl();
+  const std::size_t drum = m.instances[instance_index(x.model, "DRUM")].part;
+  const double r = d.drum.diameter * 500, face = d.drum.width * 1000;
+  const double band_w = d.band.width * 1000;
+  const TopoDS_Shape plain =
+      BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(0, 0, 0), gp_Dir(0, 0, 1)), r + 0.1, face).Shape();
+  m.parts[drum].shape = plain;
+  m.parts[drum].envelope = plain;
+  run_checks(m, m.intended, /*interference=*/true);
+  bool seen = false;
+  for (const ContactCheck& c : m.contacts) {
+    if ((c.part_a == "DRUM" && c.part_b == "LINING") || (c.part_a == "LINING" && c.part_b == "DRUM")) {
+      seen = true;
+      EXPECT_FALSE(c.ok);
+      const double sector = 0.5 * sol.layout.wrap * ((r + 0.1) * (r + 0.1) - r * r) * band_w;
+      EXPECT_NEAR(c.common_volume, sector, 1e-6 * sector);
+    }
+  }
+  EXPECT_TRUE(seen);
+}
+
 TEST(Interference, LeverThroughTheDrumIsRejectedNamingBothParts) {
   // Pivot and handle 100 mm below the centre: the lever plate (in front of the band, inside
   // the drum's 100 mm width) crosses the Ø400 drum.
