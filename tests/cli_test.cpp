@@ -151,6 +151,21 @@ TEST(CliExit, BadCommandLineIsStatus1) {
   EXPECT_EQ(run("frobnicate").status, 1);
 }
 
+TEST(CliExit, StrictMakesAFailedCheckStatus6) {
+  // Band allowable stress 10 MPa. Hand computation for the bin hoist at f_min = 0.25, wrap
+  // 4.2286 rad: e = e^(0.25·4.2286) = 2.878, P1 = T·e/(r·(e − 1)) = 500·2.878/(0.2·1.878) = 3831 N,
+  // σ = P1/(b·t) = 3831/(80 × 3 mm²) = 15.96 MPa > 10 MPa, so the band_stress check fails.
+  // Without --strict the results are printed and the status is 0; with it, 6.
+  const auto p = example_with("allowable_stress = \"60 MPa\"", "allowable_stress = \"10 MPa\"", "strict");
+  const auto plain = run("solve " + p.string());
+  EXPECT_EQ(plain.status, 0) << plain.err;
+  EXPECT_NE(plain.out.find("[FAIL] Band tensile stress"), std::string::npos) << plain.out;
+  const auto strict = run("solve --strict " + p.string());
+  EXPECT_EQ(strict.status, 6) << strict.err;
+  EXPECT_NE(strict.err.find("band_stress"), std::string::npos) << strict.err;
+  EXPECT_FALSE(strict.out.empty());  // the table is still printed before the failure status
+}
+
 // One test per mistake of the foundation issue, §5.
 TEST(BadInput, MissingKey) {
   const auto p = example_with("thickness = \"3 mm\"\n", "", "missing");
