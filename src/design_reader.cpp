@@ -1079,7 +1079,7 @@ clearance = "1.5 mm"           # radial clearance when released (default 1.5 mm)
 # model = "thick"              # optional: "thin" (default) or "thick" band tension model
 
 [lever]
-pivot = ["90 mm", "-190 mm"]   # pivot centre [x, y]
+pivot = ["110 mm", "-190 mm"]  # pivot centre [x, y]
 handle = ["-450 mm", "-190 mm"] # where the operator's force acts, perpendicular to pivot→handle
 width = "45 mm"                # plate width in the view plane
 thickness = "12 mm"            # plate thickness along the drum axis

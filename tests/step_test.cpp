@@ -222,6 +222,19 @@ TEST(QuietOcct, GuardsNestAcrossThreadsAndTheLastOneRestoresThePrinters) {
   EXPECT_EQ(messenger->Printers().Length(), before);
 }
 
+TEST(BuildCommand, TheStarterDesignBuilds) {
+  // What `bandforge new` prints is where a user starts: it must solve and build cleanly (an
+  // earlier starter had its two frame anchors overlapping).
+  const fs::path dir = fresh_dir("starter");
+  const std::string exe = BANDFORGE_EXE;
+  ASSERT_EQ(run("'" + exe + "' new > '" + (dir / "starter.toml").string() + "'").status, 0);
+  const auto [status, out] = run("'" + exe + "' build '" + (dir / "starter.toml").string() +
+                                 "' -o '" + (dir / "out").string() + "' 2>&1");
+  EXPECT_EQ(status, 0) << out;
+  EXPECT_TRUE(fs::exists(dir / "out" / "NEW-BRAKE-1.step")) << out;
+  EXPECT_TRUE(fs::exists(dir / "out" / "NEW-BRAKE-1.pdf")) << out;
+}
+
 TEST(BuildCommand, ConcurrentBuildsNeverCrash) {
   // Regression: the two threads of one build once raced on OCCT's messenger and crashed about one
   // build in twenty on a loaded machine. Three builds at a time, five rounds.
