@@ -193,7 +193,7 @@ nlohmann::json to_json(const Design& design, const geom::BrakeModel& model, bool
           {"files", files}};
 }
 
-void run_build(const BuildCommand& cmd) {
+void build_outputs(const BuildCommand& cmd) {
   const Design design = read_design_file(cmd.design);
   const Solution solution = solve(design);
   if (design.concept_arms.present) {
@@ -272,6 +272,17 @@ void run_build(const BuildCommand& cmd) {
     std::cout << to_json(design, model, cmd.released, files).dump(2) << '\n';
   } else {
     print_text(design, model, cmd.released, files);
+  }
+}
+
+// A part that cannot be built has no single key to point at (an interference names two parts):
+// the message names the design file so that a batch of builds says which design failed.
+void run_build(const BuildCommand& cmd) {
+  try {
+    build_outputs(cmd);
+  } catch (const BuildError& e) {
+    const std::string what = e.what();
+    throw BuildError(what.rfind(cmd.design, 0) == 0 ? what : cmd.design + ": " + what);
   }
 }
 
