@@ -46,18 +46,6 @@ struct BuildCommand {
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
 
-// The file stem from [project] number: characters a file system may refuse become '_'.
-std::string file_stem(const std::string& number) {
-  std::string s;
-  for (char c : number) {
-    const bool plain = (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') ||
-                       c == '-' || c == '_' || c == '.';
-    s += plain ? c : '_';
-  }
-  if (s.empty() || s == "." || s == "..") s = "brake";
-  return s;
-}
-
 // A directory inside OUTDIR that holds the outputs until all of them exist; removed on failure.
 class Staging {
  public:
@@ -199,7 +187,7 @@ void build_outputs(const BuildCommand& cmd) {
   if (design.concept_arms.present) {
     // No pin coordinates, so no solids, STEP or flat patterns: the calculation sheet only.
 #ifdef BANDFORGE_HAVE_DRAWING
-    const std::string stem = file_stem(design.project.number);
+    const std::string stem = design.project.number;
     Staging staging(cmd.out_dir, stem);
     // No solids, nothing to cut: an empty cut list, no table.
     drawing::write_drawing(design, solution, nullptr, nullptr, {},
@@ -224,7 +212,8 @@ void build_outputs(const BuildCommand& cmd) {
                 "library to write its calculation sheet");
 #endif
   }
-  const std::string stem = file_stem(design.project.number);
+  // The reader accepts only a safe file stem for [project] number (letters, digits, - _ .).
+  const std::string stem = design.project.number;
   Staging staging(cmd.out_dir, stem);
   // OCCT's messenger is process-wide: one guard for the whole two-thread section (see QuietOcct).
   const geom::QuietOcct quiet;
