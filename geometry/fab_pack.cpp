@@ -11,6 +11,7 @@
 
 #include "geometry/flat_internal.hpp"
 #include "src/errors.hpp"
+#include "src/staging.hpp"
 
 namespace bandforge::geom {
 namespace {
@@ -224,37 +225,10 @@ void write_fab_pack(const Design& design, const Solution& solution, const BrakeM
   // Everything that can refuse (BuildError) runs before the disk is touched.
   const FabPack pack = make_fab_pack(design, solution, model);
 
-  const fs::path out(outdir);
-  std::error_code ec;
-  fs::create_directories(out, ec);
-  if (ec || !fs::is_directory(out)) {
-    throw IoError("cannot create the output directory " + out.string() +
-                  (ec ? ": " + ec.message() : ": a file of that name is in the way"));
-  }
-  const fs::path stage = out / ".fab.partial", done = out / "fab", old = out / ".fab.old";
-  fs::remove_all(stage, ec);
-  if (!fs::create_directory(stage, ec)) {
-    throw IoError("cannot write in " + out.string() + ": " + ec.message());
-  }
-  try {
-    write_fab_files(pack, version, [&](const std::string& name) { return (stage / name).string(); });
-    // Swap the new folder in; an earlier fab/ is kept aside until the rename has worked.
-    fs::remove_all(old);
-    const bool had = fs::exists(done);
-    if (had) fs::rename(done, old);
-    fs::rename(stage, done, ec);
-    if (ec) {
-      if (had) fs::rename(old, done);
-      throw IoError("cannot write " + done.string() + ": " + ec.message());
-    }
-    fs::remove_all(old);
-  } catch (const fs::filesystem_error& e) {
-    fs::remove_all(stage, ec);
-    throw IoError("cannot write " + done.string() + ": " + e.code().message());
-  } catch (...) {
-    fs::remove_all(stage, ec);
-    throw;
-  }
+  StagedOutputs staging(outdir, "fab");
+  write_fab_files(pack, version, [&](const std::string& name) { return staging.path("fab/" + name); });
+  staging.commit();
+  remove_stale_fab_files((fs::path(outdir) / "fab").string(), pack);
 }
 
 }  // namespace bandforge::geom

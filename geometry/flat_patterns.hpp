@@ -115,8 +115,9 @@ std::vector<CutListRow> cut_list(const Design& design, const Solution& solution,
 void write_fab_files(const FabPack& pack, DxfVersion version,
                      const std::function<std::string(const std::string& name)>& path_for);
 
-/// make_fab_pack() and write_fab_files() into OUTDIR/fab/, through a staging folder renamed when
-/// complete: on failure no partial fab/ is left and an earlier fab/ stays as it was.
+/// make_fab_pack() and write_fab_files() into OUTDIR/fab/ through StagedOutputs (src/staging.hpp,
+/// the same staging `build` uses): nothing is written when a part cannot be flattened, files
+/// move into fab/ only when all exist, and pack files an earlier build left there are removed.
 void write_fab_pack(const Design& design, const Solution& solution, const BrakeModel& model,
                     const std::string& outdir, DxfVersion version);
 

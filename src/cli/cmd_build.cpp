@@ -20,6 +20,7 @@
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
+#include "src/staging.hpp"
 #include "src/units.hpp"
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
@@ -46,55 +47,6 @@ struct BuildCommand {
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
 
-// A directory inside OUTDIR that holds the outputs until all of them exist; removed on failure.
-class Staging {
- public:
-  Staging(const fs::path& out_dir, const std::string& stem) : out_(out_dir) {
-    std::error_code ec;
-    fs::create_directories(out_, ec);
-    if (ec || !fs::is_directory(out_)) {
-      throw IoError("cannot create the output directory " + out_.string() + ": " + ec.message());
-    }
-    dir_ = out_ / ("." + stem + ".partial");
-    fs::remove_all(dir_, ec);
-    if (!fs::create_directory(dir_, ec)) {
-      throw IoError("cannot write in " + out_.string() + ": " + ec.message());
-    }
-  }
-  ~Staging() {
-    std::error_code ec;
-    fs::remove_all(dir_, ec);
-  }
-  Staging(const Staging&) = delete;
-  Staging& operator=(const Staging&) = delete;
-
-  /// Where to write `name` now (a relative path such as "fab/band.dxf" is allowed).
-  std::string path(const std::string& name) {
-    const fs::path p = dir_ / name;
-    std::error_code ec;
-    fs::create_directories(p.parent_path(), ec);
-    names_.push_back(name);
-    return p.string();
-  }
-
-  /// Moves every staged file into OUTDIR; returns their final paths.
-  std::vector<std::string> commit() {
-    std::vector<std::string> done;
-    for (const std::string& name : names_) {
-      const fs::path to = out_ / name;
-      std::error_code ec;
-      fs::create_directories(to.parent_path(), ec);
-      fs::rename(dir_ / name, to, ec);
-      if (ec) throw IoError("cannot write " + to.string() + ": " + ec.message());
-      done.push_back(to.string());
-    }
-    return done;
-  }
-
- private:
-  fs::path out_, dir_;
-  std::vector<std::string> names_;
-};
 
 std::string fixed(double v, int decimals) {
   char buf[64];
@@ -188,7 +140,7 @@ void build_outputs(const BuildCommand& cmd) {
     // No pin coordinates, so no solids, STEP or flat patterns: the calculation sheet only.
 #ifdef BANDFORGE_HAVE_DRAWING
     const std::string stem = design.project.number;
-    Staging staging(cmd.out_dir, stem);
+    StagedOutputs staging(cmd.out_dir, stem);
     // No solids, nothing to cut: an empty cut list, no table.
     drawing::write_drawing(design, solution, nullptr, nullptr, {},
                            cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
@@ -214,7 +166,7 @@ void build_outputs(const BuildCommand& cmd) {
   }
   // The reader accepts only a safe file stem for [project] number (letters, digits, - _ .).
   const std::string stem = design.project.number;
-  Staging staging(cmd.out_dir, stem);
+  StagedOutputs staging(cmd.out_dir, stem);
   // OCCT's messenger is process-wide: one guard for the whole two-thread section (see QuietOcct).
   const geom::QuietOcct quiet;
   // Staged names are taken here, on one thread, in the order the files are listed.
