@@ -7,6 +7,7 @@
 #include <numbers>
 
 #include "src/errors.hpp"
+#include "src/version.hpp"
 
 #ifndef BANDFORGE_FONT_FILE
 #define BANDFORGE_FONT_FILE "/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf"
@@ -97,6 +98,8 @@ void Canvas::set_title(const std::string& title, const std::string& author,
   auto& m = *impl_;
   // Only text fields: no creation or modification date, so equal input gives equal bytes.
   m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_CREATOR, "bandforge"), "writing document info");
+  const std::string producer = std::string("bandforge ") + version() + " (libharu " HPDF_VERSION_TEXT ")";
+  m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_PRODUCER, producer.c_str()), "writing the producer");
   if (!title.empty()) m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_TITLE, title.c_str()), "writing the title");
   if (!author.empty()) m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_AUTHOR, author.c_str()), "writing the author");
   if (!subject.empty()) m.check(HPDF_SetInfoAttr(m.doc, HPDF_INFO_SUBJECT, subject.c_str()), "writing the subject");

@@ -4,6 +4,8 @@
 #include <cstdlib>
 #include <ctime>
 
+#include "src/version.hpp"
+
 namespace bandforge::geom {
 namespace {
 
@@ -55,7 +57,7 @@ StepHeader step_header(const Design& design, const std::string& file_name) {
   h.author = one_line(p.creator);
   h.organization = one_line(p.owner);
   h.authorisation = one_line(p.approver);
-  h.system = std::string("bandforge ") + BANDFORGE_VERSION;
+  h.system = std::string("bandforge ") + version();
   return h;
 }
 

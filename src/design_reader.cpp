@@ -9,6 +9,7 @@
 #include <filesystem>
 #include <fstream>
 #include <initializer_list>
+#include <iostream>
 #include <numbers>
 #include <optional>
 #include <vector>
@@ -1013,8 +1014,25 @@ Design read_design_text(std::string_view text, const std::string& name) {
   return Reader(text, name).read();
 }
 
+namespace {
+
+// The whole of standard input, up to one byte past the size limit (read_design_text reports it).
+std::string read_all(std::istream& in, const std::string& name) {
+  std::string text;
+  std::array<char, 65536> buf;
+  while (in.read(buf.data(), buf.size()) || in.gcount() > 0) {
+    text.append(buf.data(), static_cast<std::size_t>(in.gcount()));
+    if (text.size() > kMaxFileBytes) break;
+  }
+  if (in.bad()) throw IoError("cannot read design file " + name + ": read error");
+  return text;
+}
+
+}  // namespace
+
 Design read_design_file(const std::string& path) {
   namespace fs = std::filesystem;
+  if (path == kStdinPath) return read_design_text(read_all(std::cin, kStdinName), kStdinName);
   std::error_code ec;
   const fs::file_status st = fs::status(path, ec);
   if (ec || !fs::exists(st)) throw IoError("cannot read design file " + path + ": no such file");
@@ -1023,14 +1041,7 @@ Design read_design_file(const std::string& path) {
   }
   std::ifstream in(path, std::ios::binary);
   if (!in) throw IoError("cannot read design file " + path + ": permission denied or unreadable");
-  std::string text;
-  std::array<char, 65536> buf;
-  while (in.read(buf.data(), buf.size()) || in.gcount() > 0) {
-    text.append(buf.data(), static_cast<std::size_t>(in.gcount()));
-    if (text.size() > kMaxFileBytes) break;  // read_design_text reports it
-  }
-  if (in.bad()) throw IoError("cannot read design file " + path + ": read error");
-  return read_design_text(text, path);
+  return read_design_text(read_all(in, path), path);
 }
 
 std::string starter_design() {

@@ -166,6 +166,33 @@ TEST(CliExit, StrictMakesAFailedCheckStatus6) {
   EXPECT_FALSE(strict.out.empty());  // the table is still printed before the failure status
 }
 
+TEST(Cli, VersionIsTheProjectVersion) {
+  // The version comes from CMake's project() (top CMakeLists.txt), read here from that file.
+  const std::string cmake = slurp(fs::path(BANDFORGE_SOURCE_DIR) / "CMakeLists.txt");
+  const auto at = cmake.find("project(bandforge VERSION ");
+  ASSERT_NE(at, std::string::npos);
+  const std::string rest = cmake.substr(at + 26);
+  const std::string version = rest.substr(0, rest.find_first_of(" )"));
+  const Result r = run("--version");
+  EXPECT_EQ(r.status, 0) << r.err;
+  EXPECT_EQ(r.out, "bandforge " + version + "\n");
+}
+
+// `-` reads the design from standard input (the Unix convention): the same results as the file,
+// and messages name <stdin> with the line and column.
+TEST(Cli, DesignFromStandardInput) {
+  const Result file = run("solve --json " + kExample.string());
+  const Result piped = run("solve --json - < " + kExample.string());
+  EXPECT_EQ(piped.status, 0) << piped.err;
+  EXPECT_EQ(piped.out, file.out);
+  const auto bad = example_with("thickness = \"3 mm\"", "thickness = \"3 N\"", "stdin-bad");
+  const Result err = run("solve - < " + bad.string());
+  EXPECT_EQ(err.status, 2) << err.err;
+  const std::string where = "<stdin>:" + std::to_string(line_of(bad, "thickness = \"3 N\"")) + ":";
+  EXPECT_NE(err.err.find(where), std::string::npos) << "expected " << where << " in: " << err.err;
+  EXPECT_NE(err.err.find("band.thickness"), std::string::npos) << err.err;
+}
+
 // One test per mistake of the foundation issue, §5.
 TEST(BadInput, MissingKey) {
   const auto p = example_with("thickness = \"3 mm\"\n", "", "missing");

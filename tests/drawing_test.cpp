@@ -445,6 +445,34 @@ TEST(DrawingOutput, BuildCommandWritesTheSamePdfInTwoProcesses) {
   EXPECT_EQ(slurp(a / (number + ".pdf")), slurp(example().pdf));
 }
 
+// `build - -o OUT` reads the design from standard input (through the hand-over to bandforge-cad)
+// and writes the same files as `build FILE -o OUT`: byte for byte, but for the PDF, whose
+// calculation sheet names the design file it read ("(design file <stdin>)").
+TEST(DrawingOutput, BuildFromStandardInputWritesTheSameFiles) {
+  const fs::path a = scratch_root() / "stdin-file", b = scratch_root() / "stdin-pipe";
+  const std::string exe = BANDFORGE_EXE;
+  ASSERT_EQ(run(exe + " build " + quote(kExample) + " -o " + quote(a)).status, 0);
+  ASSERT_EQ(run(exe + " build - -o " + quote(b) + " < " + quote(kExample)).status, 0);
+  const std::string number = example().design.project.number;
+  int files = 0;
+  for (const auto& e : fs::recursive_directory_iterator(a)) {
+    if (!e.is_regular_file() || e.path().extension() == ".pdf") continue;
+    ++files;
+    const fs::path other = b / fs::relative(e.path(), a);
+    ASSERT_TRUE(fs::exists(other)) << other;
+    EXPECT_TRUE(slurp(e.path()) == slurp(other)) << fs::relative(e.path(), a) << " differs";
+  }
+  EXPECT_GE(files, 3);  // STEP, cut list and at least one DXF
+  std::string from_file = text_of(a / (number + ".pdf"));
+  const std::string from_stdin = text_of(b / (number + ".pdf"));
+  ASSERT_NE(from_stdin.find("<stdin>"), std::string::npos) << "the sheet names the input";
+  const std::string name = "(design file " + fs::path(kExample).filename().string() + ")";
+  for (std::size_t at; (at = from_file.find(name)) != std::string::npos;) {
+    from_file.replace(at, name.size(), "(design file <stdin>)");
+  }
+  EXPECT_TRUE(from_file == from_stdin) << "the PDF's text differs beyond the design file's name";
+}
+
 TEST(DrawingOutput, LayoutThatCannotFitNamesSheetAndScale) {
   Design d = example().design;
   d.drawing.sheet = "A4";

@@ -225,7 +225,9 @@ TEST(FabPack, BinHoistEyeJointByHand) {
     for (const DirectionResult& r : dir) tension = std::max(tension, r.tension_tight);
   }
   ASSERT_LT(tension, 8 * 34.641016e6 * pi * 36 / 4 * 1e-6);  // the hand case: two rows suffice
-  const FlatPart& band = *find(make_fab_pack(b->design, b->solution, b->model), "BAND-BLANK");
+  // The pack is kept in a variable: a reference into the temporary would dangle.
+  const FabPack pack = make_fab_pack(b->design, b->solution, b->model);
+  const FlatPart& band = *find(pack, "BAND-BLANK");
   ASSERT_EQ(band.developed.size(), 5u);
   EXPECT_NEAR(band.developed[1].length, 50.190, 5e-4);
   EXPECT_NEAR(band.developed[3].length, 42.0, 1e-12);
@@ -338,7 +340,8 @@ TEST(FabPack, LeverPlateWithABentOutlineMatchesTheSolid) {
   // w/2 gives the plate by hand: area A + P·w/2 + π(w/2)², perimeter P + πw.
   const Built b = build(example_with("handle = [\"700 mm\", \"-300 mm\"]",
                                      "handle = [\"700 mm\", \"-200 mm\"]"), "bent");
-  const FlatPart& lever = *find(make_fab_pack(b.design, b.solution, b.model), "LEVER-PLATE");
+  const FabPack pack = make_fab_pack(b.design, b.solution, b.model);
+  const FlatPart& lever = *find(pack, "LEVER-PLATE");
   const Vec2 o{-110, -300}, pin{60 - o.x, -300 - o.y}, handle{700 - o.x, -200 - o.y};
   const double tri = std::abs(pin.x * handle.y - pin.y * handle.x) / 2;
   const double per = std::hypot(pin.x, pin.y) + std::hypot(handle.x - pin.x, handle.y - pin.y) +

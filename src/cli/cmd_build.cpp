@@ -223,7 +223,8 @@ void run_build(const BuildCommand& cmd) {
     build_outputs(cmd);
   } catch (const BuildError& e) {
     const std::string what = e.what();
-    throw BuildError(what.rfind(cmd.design, 0) == 0 ? what : cmd.design + ": " + what);
+    const std::string name = design_display_name(cmd.design);
+    throw BuildError(what.rfind(name, 0) == 0 ? what : name + ": " + what);
   }
 }
 
@@ -232,14 +233,29 @@ void run_build(const BuildCommand& cmd) {
 // OpenCASCADE's ~60 shared libraries take about 40 ms to load, three times a whole `solve`.
 // So the `bandforge` that users run links only the core, and hands `build` (its arguments already
 // checked by the parse above) to its sibling executable, which links geometry/ and drawing/.
-void run_build(const BuildCommand&) {
+// Where bandforge-cad is: beside bandforge in the build tree (build/bin/), or in
+// <prefix>/libexec/bandforge/ after `cmake --install` or the Debian package (the path relative
+// to bin/ comes from GNUInstallDirs, so a relocated prefix or a DESTDIR tree works too).
+fs::path cad_executable() {
   std::error_code ec;
   const fs::path self = fs::read_symlink("/proc/self/exe", ec);
-  const fs::path cad = (ec ? fs::path(".") : self.parent_path()) / BANDFORGE_CAD_EXECUTABLE;
+  const fs::path dir = ec ? fs::path(".") : self.parent_path();
+  const fs::path candidates[] = {dir / BANDFORGE_CAD_EXECUTABLE,
+                                 dir / BANDFORGE_CAD_RELATIVE_DIR / BANDFORGE_CAD_EXECUTABLE};
+  for (const fs::path& p : candidates) {
+    if (::access(p.c_str(), X_OK) == 0) return p;
+  }
+  throw Error(Exit::internal, "build: cannot find " + candidates[0].string() + " or " +
+                                  candidates[1].lexically_normal().string() +
+                                  " (bandforge-cad is built beside bandforge and installed in "
+                                  "libexec/bandforge/)");
+}
+
+void run_build(const BuildCommand&) {
+  const fs::path cad = cad_executable();
   std::fflush(nullptr);
   ::execv(cad.c_str(), original_argv());
-  throw Error(Exit::internal, "build: cannot start " + cad.string() + ": " + std::strerror(errno) +
-                                  " (it is built and installed next to bandforge)");
+  throw Error(Exit::internal, "build: cannot start " + cad.string() + ": " + std::strerror(errno));
 }
 
 #else
@@ -258,7 +274,7 @@ void setup_build(CLI::App& app) {
   auto* sub = app.add_subcommand(
       "build", "Build and check the solids; write OUTDIR/<number>.step, OUTDIR/<number>.pdf "
                "and the flat patterns in OUTDIR/fab/");
-  sub->add_option("design", cmd->design, "design file (TOML)")->required();
+  sub->add_option("design", cmd->design, "design file (TOML); - reads it from standard input")->required();
   sub->add_option("-o,--out", cmd->out_dir, "output directory (created if missing)")->required();
   sub->add_flag("--released", cmd->released,
                 "build the released state: band lifted by the clearance, lever turned back");

@@ -40,7 +40,8 @@ void run_solve(const SolveOptions& o) {
 void setup_solve(CLI::App& app) {
   auto opt = std::make_shared<SolveOptions>();
   auto* sub = app.add_subcommand("solve", "Solve the band mechanics and print results and checks");
-  sub->add_option("design", opt->design_path, "Design file (TOML)")->required();
+  sub->add_option("design", opt->design_path, "Design file (TOML); - reads it from standard input")
+      ->required();
   sub->add_option("--units", opt->units, "Display units for the table: si or us")
       ->check(CLI::IsMember({"si", "us"}));
   sub->add_flag("--json", opt->json, "Print one JSON object (SI units, unit in each key's suffix)");

@@ -5,6 +5,7 @@
 
 #include "src/cli/commands.hpp"
 #include "src/errors.hpp"
+#include "src/version.hpp"
 
 namespace bandforge::cli {
 namespace {
@@ -22,6 +23,8 @@ int main(int argc, char** argv) {
       "and flat patterns (DXF). Results are a design aid: have them checked against the applicable\n"
       "codes and by a licensed engineer."};
   app.name("bandforge");
+  app.set_version_flag("--version", std::string("bandforge ") + bandforge::version(),
+                       "Print the version and exit");
   app.require_subcommand(1);
   bandforge::cli::setup_solve(app);
   bandforge::cli::setup_build(app);
