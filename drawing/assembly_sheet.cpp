@@ -120,7 +120,7 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
                                                       : f.width() - 2 * kGap;
     plan.zones = make_zones(c, sheet, table_height(c, results_table(d, s, any)),
                             table_height(c, parts_table(model, any)),
-                            notes_lines(c, general_notes(d, any), notes_w));
+                            notes_lines(c, general_notes(d, s, any), notes_w));
   }
   const Box area = plan.zones.views;
   const Features f = features(d);
@@ -230,7 +230,7 @@ void draw_tables_and_notes(Page1& p, const geom::BrakeModel& model) {
   draw_table(p.c, pt, {z.parts.x0, z.parts.y1});
 
   std::vector<std::string> text = {"NOTES"};
-  std::vector<std::string> items = general_notes(p.d, p.u);
+  std::vector<std::string> items = general_notes(p.d, p.s, p.u);
   for (const auto& n : p.notes) items.push_back(n);
   for (size_t i = 0; i < items.size(); ++i) {
     for (auto& l : wrap_lines(p.c, std::to_string(i + 1) + ". " + items[i], Lettering::body, z.notes.width())) {

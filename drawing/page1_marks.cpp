@@ -139,6 +139,8 @@ void draw_balloons(Page1& p, const geom::BrakeModel& model) {
   const double wrap_mid = mid_wrap(p.s.layout);
   const double rim = drum_proportions(p.d.drum).rim_thickness * kMmPerM;
   const Features& f = p.f;
+  std::string omitted;
+  int n_omitted = 0;
   for (size_t i = 0; i < parts.size(); ++i) {
     Pt target;
     const std::string& kind = kinds[i];
@@ -147,12 +149,20 @@ void draw_balloons(Page1& p, const geom::BrakeModel& model) {
     else if (kind == "band") target = polar({0, 0}, p.r + p.t_l + p.t / 2, wrap_mid - 0.35);
     else if (kind == "lever") target = f.pivot + (f.handle - f.pivot) * 0.6;
     else if (kind == "grip") target = f.handle;
-    else if (kind == "pin") target = f.pivot;
-    else target = {parts[i].centroid.x, parts[i].centroid.y};
+    else if ((kind == "pin" || kind == "anchor") && !parts[i].instance_origins.empty()) {
+      // Each pin length and each plate at its own first instance, not all at one point.
+      target = {parts[i].instance_origins[0].x, parts[i].instance_origins[0].y};
+    } else target = {parts[i].centroid.x, parts[i].centroid.y};
     const Pt tp = p.front(target);
     if (!place_balloon(p.c, p.occ, tp, ring_candidates(p.fv, tp, {10, 18, 26}), std::to_string(i + 1))) {
-      p.notes.push_back("balloon for item " + std::to_string(i + 1) + " (" + parts[i].name + ") omitted: no free place");
+      omitted += (omitted.empty() ? "" : ", ") + std::to_string(i + 1) + " (" + parts[i].name + ")";
+      ++n_omitted;
     }
+  }
+  // One note for every balloon that found no room, so the notes stay short on a small sheet.
+  if (n_omitted > 0) {
+    p.notes.push_back(std::string(n_omitted == 1 ? "balloon for item " : "balloons for items ") +
+                      omitted + " omitted: no free place");
   }
 }
 

@@ -67,12 +67,17 @@ Table parts_table(const geom::BrakeModel& model, UnitSystem u) {
   return t;
 }
 
-std::vector<std::string> general_notes(const Design& d, UnitSystem u) {
+std::vector<std::string> general_notes(const Design& d, const Solution& s, UnitSystem u) {
   std::vector<std::string> n;
   n.push_back(std::string("Dimensions in ") + (u == UnitSystem::si ? "mm" : "inches") +
               " from the drum centre; ( ) = reference dimension computed from the pin layout.");
-  n.push_back("Applied position shown; lever released (radial clearance " +
-              dim_length(d.band.clearance, u) + ") as a phantom line.");
+  if (s.hardware.release_ok) {
+    n.push_back("Applied position shown; lever released (radial clearance " +
+                dim_length(d.band.clearance, u) + ") as a phantom line.");
+  } else {
+    n.push_back("Applied position shown; the released position is not drawn: it fails the check "
+                "release_clearance (calculation sheet).");
+  }
   return n;
 }
 

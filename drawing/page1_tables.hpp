@@ -24,6 +24,6 @@ Table results_table(const Design& d, const Solution& s, UnitSystem u);
 Table parts_table(const geom::BrakeModel& model, UnitSystem u);
 
 /// Units, reference dimensions, the phantom line.
-std::vector<std::string> general_notes(const Design& d, UnitSystem u);
+std::vector<std::string> general_notes(const Design& d, const Solution& s, UnitSystem u);
 
 }  // namespace bandforge::drawing

@@ -13,21 +13,19 @@
 #include <gp_Vec.hxx>
 
 #include "geometry/assemble.hpp"
-#include "geometry/band_path.hpp"
+#include "src/band_path.hpp"
 #include "geometry/occt_guard.hpp"
 #include "geometry/solids.hpp"
 #include "src/errors.hpp"
+#include "src/hardware.hpp"
 #include "src/proportions.hpp"
 
 namespace bandforge::geom {
 namespace {
 
 constexpr double mm_per_m = 1000.0;
-constexpr double axial_gap = 4.0;      // band face to lever / anchor plate [mm]
-constexpr double pin_overhang = 2.0;   // pin beyond its outer plate; < axial_gap so that a
-                                       // frame pin under the lever stays clear of it [mm]
-constexpr double grip_diameter = 30.0; // a hand grip: common practice, no source [mm]
-constexpr double grip_length = 100.0;  // one hand's width [mm]
+constexpr double grip_diameter = hardware_rules::grip_diameter * mm_per_m;  // [mm]
+constexpr double grip_length = hardware_rules::grip_length * mm_per_m;      // [mm]
 constexpr double steel_density = 7850; // carbon steel [kg/m³]: common practice, no source
 
 // Part colours (sRGB, written with exactly these decimals into the STEP file).
@@ -38,6 +36,7 @@ constexpr Rgb lever_colour{0.85, 0.45, 0.10};
 constexpr Rgb grip_colour{0.10, 0.10, 0.10};
 constexpr Rgb pin_colour{0.75, 0.75, 0.75};
 constexpr Rgb anchor_colour{0.25, 0.50, 0.30};
+constexpr Rgb block_colour{0.30, 0.35, 0.45};
 
 Vec2 mm(Vec2 v) { return {v.x * mm_per_m, v.y * mm_per_m}; }
 double dist(Vec2 p, Vec2 q) { return std::hypot(p.x - q.x, p.y - q.y); }
@@ -57,130 +56,6 @@ double lining_density(const std::string& material) {
   if (has("sinter")) return 6000;
   if (has("mould") || has("mold")) return 2800;
   return 1600;
-}
-
-// Everything in millimetres, taken from the design once.
-struct Dims {
-  double r = 0;           // drum friction radius
-  double band_t = 0, band_b = 0, lining_t = 0;
-  double pin_r = 0;
-  double lever_w = 0, lever_t = 0;
-  double eye_outer = 0;   // band eye ring outer radius
-  double min_wall = 0;    // least material round a hole
-};
-
-Dims dimensions(const Design& d) {
-  Dims m;
-  m.r = d.drum.diameter / 2 * mm_per_m;
-  m.band_t = d.band.thickness * mm_per_m;
-  m.band_b = d.band.width * mm_per_m;
-  m.lining_t = d.lining.thickness * mm_per_m;
-  m.pin_r = d.band.pin_diameter / 2 * mm_per_m;
-  m.lever_w = d.lever.width * mm_per_m;
-  m.lever_t = d.lever.thickness * mm_per_m;
-  m.eye_outer = m.pin_r + m.band_t;
-  // A quarter of the pin diameter, at least 2 mm (common practice for lugs, no source).
-  m.min_wall = std::max(2.0, 0.5 * m.pin_r);
-  return m;
-}
-
-// The pins of the layout: band ends, pivot, and which of them share a centre.
-struct Station {
-  std::string id;   // "A", "B", "PIVOT"
-  Vec2 at;          // [mm], applied state
-  bool on_lever = false;
-  bool carries_band = false;
-  bool on_frame = false;  // held by an anchor
-};
-
-std::vector<Station> stations(const Design& d, const Layout& applied) {
-  const Vec2 pivot = mm(d.lever.pivot);
-  std::vector<Station> out;
-  Station piv{"PIVOT", pivot, true, false, true};
-  for (const auto* e : {&applied.a, &applied.b}) {
-    const std::string id = e == &applied.a ? "A" : "B";
-    const Vec2 at = mm(e->pin);
-    // A band end on the pivot centre hangs on the pivot pin itself (the textbook simple brake).
-    if (dist(at, pivot) < 1e-3) {
-      piv.carries_band = true;
-      continue;
-    }
-    out.push_back({id, at, e->mount == Mount::lever, true, e->mount == Mount::frame});
-  }
-  out.push_back(piv);
-  return out;
-}
-
-std::string end_key(const std::string& id) {
-  return id == "A" ? "band.end_a.at" : id == "B" ? "band.end_b.at" : "lever.pivot";
-}
-
-[[noreturn]] void cannot(const std::string& part, const std::string& what) {
-  throw BuildError("cannot build the " + part + ": " + what);
-}
-
-// Sizes that make a part impossible, named by part and design key, before any OCCT call.
-void check_buildable(const Design& d, const Layout& state, const Dims& m,
-                     const std::vector<Station>& st) {
-  const DrumProportions p = drum_proportions(d.drum);
-  const double bore = d.drum.bore * mm_per_m, hub = p.hub_diameter * mm_per_m;
-  // Hub wall at least a tenth of the bore and 3 mm (common practice, no source).
-  const double hub_wall = std::max(3.0, 0.1 * bore);
-  if (!(hub > bore + 2 * hub_wall)) {
-    cannot("drum", "drum.bore = " + num(bore) + " mm leaves no hub inside the rim (the hub is Ø" +
-                       num(hub) + " mm; the bore must be below " + num(hub - 2 * hub_wall) +
-                       " mm)");
-  }
-  for (const EndLayout* e : {&state.a, &state.b}) {
-    const std::string id = e == &state.a ? "A" : "B";
-    const double run = e->free_length * mm_per_m;
-    if (!(run > m.eye_outer)) {
-      cannot("band", "pin " + id + " (" + end_key(id) + ") is too close to the drum for the band eye: "
-                     "the free run is " + num(run) + " mm, the eye needs more than " +
-                     num(m.eye_outer) + " mm (pin radius " + num(m.pin_r) +
-                     " mm + band thickness " + num(m.band_t) + " mm)");
-    }
-    const double gap = std::hypot(e->pin.x, e->pin.y) * mm_per_m - m.eye_outer - m.r;
-    if (!(gap > 0)) {
-      cannot("band", "the eye at pin " + id + " (" + end_key(id) + ") reaches " + num(-gap) +
-                         " mm into the drum (Ø" + num(2 * m.r) + " mm); move the pin out");
-    }
-  }
-  if (dist(mm(state.a.pin), mm(state.b.pin)) <= 2 * m.eye_outer) {
-    cannot("band", "the eyes at pins A and B overlap: the pins are " +
-                       num(dist(mm(state.a.pin), mm(state.b.pin))) + " mm apart, the eyes need " +
-                       num(2 * m.eye_outer) + " mm (band.end_a.at, band.end_b.at)");
-  }
-  if (!(m.lever_w / 2 - m.pin_r >= m.min_wall)) {
-    cannot("lever", "lever.width = " + num(m.lever_w) + " mm is too narrow for the Ø" +
-                        num(2 * m.pin_r) + " mm pin holes: it needs at least " +
-                        num(2 * (m.pin_r + m.min_wall)) + " mm (the lever and the anchors use it)");
-  }
-  std::vector<const Station*> holes;
-  for (const Station& s : st) {
-    if (s.on_lever) holes.push_back(&s);
-  }
-  const double least = 2 * m.pin_r + m.min_wall;
-  for (std::size_t i = 0; i < holes.size(); ++i) {
-    for (std::size_t j = i + 1; j < holes.size(); ++j) {
-      const double gap = dist(holes[i]->at, holes[j]->at);
-      if (gap < least) {
-        cannot("lever", "the lever is shorter than its holes: " + end_key(holes[i]->id) + " and " +
-                            end_key(holes[j]->id) + " are " + num(gap) +
-                            " mm apart, the Ø" + num(2 * m.pin_r) + " mm holes need " + num(least) +
-                            " mm between centres");
-      }
-    }
-  }
-  const Vec2 handle = mm(d.lever.handle);
-  for (const Station* h : holes) {
-    const double need = grip_diameter / 2 + m.pin_r + m.min_wall;
-    if (dist(handle, h->at) < need) {
-      cannot("lever", "the lever is shorter than its holes: lever.handle is " +
-                          num(dist(handle, h->at)) + " mm from the hole at " + end_key(h->id) +
-                          ", the Ø" + num(grip_diameter) + " mm grip needs " + num(need) + " mm");
-    }
-  }
 }
 
 gp_Trsf translation(Vec2 p, double z) {
@@ -236,8 +111,15 @@ TopoDS_Shape building(const std::string& what, F&& make) {
   }
 }
 
-BandEndPath end_path(const EndLayout& e) {
-  return {mm(e.pin), mm(e.tangent_point), e.tangent_angle};
+// The band end as built: an eye round the pin (riveted joints), or a straight end in the slot
+// of a welded end block, `block back − slot depth` from the pin.
+BandEndPath end_path(const EndLayout& e, const JointPlan& j) {
+  BandEndPath p{mm(e.pin), mm(e.tangent_point), e.tangent_angle};
+  if (j.kind == JointKind::welded_block) {
+    p.eye = false;
+    p.cut = (j.block_back - j.slot_depth) * mm_per_m;
+  }
+  return p;
 }
 
 }  // namespace
@@ -256,23 +138,32 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   m.layout = options.released ? released_layout(design, applied) : applied;
   m.lever_rotation = options.released ? -applied.apply_sense * applied.release_rotation : 0.0;
 
-  const Dims dm = dimensions(design);
-  const std::vector<Station> st = stations(design, applied);
-  check_buildable(design, m.layout, dm, st);
+  // What bandforge adds (brackets, joints, axial stack) is decided in the core, once
+  // (src/hardware.hpp); a layout that cannot be built is refused there, with the key to change.
+  const HardwarePlan& hw = solution.hardware;
+  if (!hw.refusal.empty()) throw BuildError(hw.refusal);
+  if (options.released && !hw.release_ok) throw BuildError(hw.release_problem);
+  const double band_t = design.band.thickness * mm_per_m, band_b = design.band.width * mm_per_m;
+  const double lining_t = design.lining.thickness * mm_per_m;
+  const double pin_r = design.band.pin_diameter / 2 * mm_per_m;
+  const double lever_w = design.lever.width * mm_per_m, lever_t = design.lever.thickness * mm_per_m;
 
   AxialLayout& ax = m.axial;
+  ax.drum_back = hw.axial.drum_back * mm_per_m;
+  ax.drum_front = hw.axial.drum_front * mm_per_m;
+  ax.band_back = hw.axial.band_back * mm_per_m;
+  ax.band_front = hw.axial.band_front * mm_per_m;
+  ax.gap = hw.axial.gap * mm_per_m;
+  ax.pin_overhang = hw.axial.pin_overhang * mm_per_m;
+  ax.lever_back = hw.axial.lever_back * mm_per_m;
+  ax.lever_front = hw.axial.lever_front * mm_per_m;
+  ax.anchor_back = ax.band_back;
+  ax.anchor_front = ax.band_back;
+  for (const BracketPlan& br : hw.brackets) {
+    ax.anchor_back = std::min(ax.anchor_back, br.z_back * mm_per_m);
+  }
+  ax.grip_front = hw.axial.grip_front * mm_per_m;
   const double w = design.drum.width * mm_per_m;
-  ax.drum_back = -w / 2;
-  ax.drum_front = w / 2;
-  ax.band_back = -dm.band_b / 2;
-  ax.band_front = dm.band_b / 2;
-  ax.gap = axial_gap;
-  ax.pin_overhang = pin_overhang;
-  ax.lever_back = ax.band_front + axial_gap;
-  ax.lever_front = ax.lever_back + dm.lever_t;
-  ax.anchor_front = ax.band_back - axial_gap;
-  ax.anchor_back = ax.anchor_front - dm.lever_t;  // anchors use the lever's plate
-  ax.grip_front = ax.lever_front + grip_length;
 
   Builder b(m);
 
@@ -303,13 +194,13 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   const Layout& lay = m.layout;
   BandPath bp;
   bp.r_band = lay.r_band * mm_per_m;
-  bp.thickness = dm.band_t;
-  bp.width = dm.band_b;
-  bp.eye_inner = dm.pin_r;
+  bp.thickness = band_t;
+  bp.width = band_b;
+  bp.eye_inner = pin_r;
   bp.sense = lay.sense;
   bp.wrap = lay.wrap;
-  bp.a = end_path(lay.a);
-  bp.b = end_path(lay.b);
+  bp.a = end_path(lay.a, hw.joint_a);
+  bp.b = end_path(lay.b, hw.joint_b);
   const std::size_t band = b.part(PartKind::band, "BAND", "steel", steel_density, band_colour,
                                   building("band", [&] { return make_band(bp); }));
   b.instance(band, "BAND", translation({0, 0}, ax.band_back));
@@ -319,13 +210,13 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     if (q < p) std::swap(p, q);
     intended.insert({p, q});
   };
-  if (dm.lining_t > 0) {
-    const double inner = bp.r_band - dm.band_t / 2 - dm.lining_t;
+  if (lining_t > 0) {
+    const double inner = bp.r_band - band_t / 2 - lining_t;
     const std::size_t lining = b.part(
         PartKind::lining, "LINING", design.lining.material, lining_density(design.lining.material),
         lining_colour, building("lining", [&] {
-          return make_arc_segment(inner, inner + dm.lining_t, lay.a.tangent_angle, lay.sense,
-                                  lay.wrap, 0, dm.band_b);
+          return make_arc_segment(inner, inner + lining_t, lay.a.tangent_angle, lay.sense,
+                                  lay.wrap, 0, band_b);
         }));
     b.instance(lining, "LINING", translation({0, 0}, ax.band_back));
     touch("LINING", "BAND");
@@ -334,16 +225,43 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     touch("BAND", "DRUM");
   }
 
+  // Welded end blocks: part coordinates with the pin at the origin, the run along −x, the band
+  // slot on the mid-plane y = 0; placed at the pin, turned to the run, across the band's width.
+  std::vector<std::pair<std::string, double>> block_parts;  // name → shape key
+  for (bool a : {true, false}) {
+    const JointPlan& j = a ? hw.joint_a : hw.joint_b;
+    if (j.kind != JointKind::welded_block) continue;
+    const EndLayout& e = a ? lay.a : lay.b;
+    const std::string id = a ? "A" : "B";
+    BlockDims bd;
+    bd.front = j.block_front * mm_per_m;
+    bd.back = j.block_back * mm_per_m;
+    bd.height = j.block_height * mm_per_m;
+    bd.slot_depth = j.slot_depth * mm_per_m;
+    bd.slot_width = band_t;
+    bd.bore = pin_r;
+    bd.width = band_b;
+    const std::string name = "END-BLOCK-" + id;
+    const std::size_t part = b.part(PartKind::block, name, "steel", steel_density, block_colour,
+                                    building("end block " + id, [&] { return make_end_block(bd); }));
+    // The run points from the pin toward the drum: part −x along it.
+    const double angle = std::atan2(e.run_dir.y, e.run_dir.x) + std::numbers::pi;
+    b.instance(part, name, compose(translation(mm(e.pin), ax.band_back), rotation(angle)));
+    touch(name, "BAND");
+    block_parts.emplace_back(name, 0.0);
+  }
+
   // Lever: part coordinates with the pivot at the origin, plate centred on z = 0; placed at the
-  // pivot in front of the band and turned about it by the release rotation.
+  // pivot in front of the band (in front of the drum face when it crosses the drum) and turned
+  // about it by the release rotation.
   const Vec2 pivot = mm(design.lever.pivot);
   const Vec2 handle = mm(design.lever.handle);
   auto rel = [&](Vec2 p) { return Vec2{p.x - pivot.x, p.y - pivot.y}; };
   std::vector<Vec2> lever_points{rel(handle)}, lever_holes;
-  for (const Station& s : st) {
-    if (s.on_lever) {
-      lever_points.push_back(rel(s.at));
-      lever_holes.push_back(rel(s.at));
+  for (const PinPlan& p : hw.pins) {
+    if (p.on_lever) {
+      lever_points.push_back(rel(mm(p.at)));
+      lever_holes.push_back(rel(mm(p.at)));
     }
   }
   const double lever_mid = (ax.lever_back + ax.lever_front) / 2;
@@ -351,8 +269,7 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
       compose(translation(pivot, lever_mid), rotation(m.lever_rotation));
   const std::size_t lever = b.part(
       PartKind::lever, "LEVER", "steel", steel_density, lever_colour, building("lever", [&] {
-        return make_plate(lever_points, dm.lever_w / 2, lever_holes, dm.pin_r, -dm.lever_t / 2,
-                          dm.lever_t);
+        return make_plate(lever_points, lever_w / 2, lever_holes, pin_r, -lever_t / 2, lever_t);
       }));
   b.instance(lever, "LEVER", lever_place);
   const std::size_t grip = b.part(PartKind::grip, "GRIP", "steel", steel_density, grip_colour,
@@ -360,51 +277,88 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
                                     return make_rod(grip_diameter / 2, 0, grip_length);
                                   }));
   b.instance(grip, "GRIP",
-             compose(lever_place, translation(rel(handle), dm.lever_t / 2)));
+             compose(lever_place, translation(rel(handle), lever_t / 2)));
   touch("GRIP", "LEVER");
 
-  // Anchors: one lug per frame-held pin, pointing away from the drum centre. Part coordinates:
-  // hole at the origin, lug along −y, plate centred on z = 0.
-  const double lug = dm.lever_w;
-  const std::size_t anchor = b.part(
-      PartKind::anchor, "ANCHOR", "steel", steel_density, anchor_colour, building("anchor", [&] {
-        return make_plate({{0, 0}, {0, -lug}}, dm.lever_w / 2, {{0, 0}}, dm.pin_r,
-                          -dm.lever_t / 2, dm.lever_t);
-      }));
-  const double anchor_mid = (ax.anchor_back + ax.anchor_front) / 2;
-  for (const Station& s : st) {
-    if (!s.on_frame) continue;
-    const double outward = std::atan2(s.at.y, s.at.x);
-    b.instance(anchor, "ANCHOR-" + s.id,
-               compose(translation(s.at, anchor_mid), rotation(outward + std::numbers::pi / 2)));
+  // Frame brackets (src/hardware.hpp). A lug for one pin: part "ANCHOR", hole at the origin, lug
+  // along −y, plate centred on z = 0, one instance per pin; a bracket shared by several pins is
+  // a part of its own, built in assembly coordinates about its first bore.
+  std::size_t anchor = m.parts.size();
+  for (const BracketPlan& br : hw.brackets) {
+    const double hw_mm = br.half_width * mm_per_m, thick = br.thickness * mm_per_m;
+    const double mid = (br.z_back + br.z_front) / 2 * mm_per_m;
+    if (br.pins.size() == 1) {
+      if (anchor == m.parts.size()) {
+        const double lug = dist(mm(br.outline[0]), mm(br.outline[1]));
+        anchor = b.part(PartKind::anchor, "ANCHOR", "steel", steel_density, anchor_colour,
+                        building("anchor", [&] {
+                          return make_plate({{0, 0}, {0, -lug}}, hw_mm, {{0, 0}}, pin_r,
+                                            -thick / 2, thick);
+                        }));
+      }
+      const Vec2 at = mm(br.holes[0]), foot = mm(br.outline[1]);
+      const double dir = std::atan2(foot.y - at.y, foot.x - at.x);
+      b.instance(anchor, br.name,
+                 compose(translation(at, mid), rotation(dir + std::numbers::pi / 2)));
+      if (br.cheek) {
+        b.instance(anchor, br.name + "-FRONT",
+                   compose(translation(at, (br.cheek_z_back + br.cheek_z_front) / 2 * mm_per_m),
+                           rotation(dir + std::numbers::pi / 2)));
+      }
+    } else {
+      const Vec2 o = mm(br.holes[0]);
+      std::vector<Vec2> pts, holes;
+      for (Vec2 p : br.outline) pts.push_back({p.x * mm_per_m - o.x, p.y * mm_per_m - o.y});
+      for (Vec2 p : br.holes) holes.push_back({p.x * mm_per_m - o.x, p.y * mm_per_m - o.y});
+      const std::size_t part = b.part(PartKind::anchor, br.name, "steel", steel_density,
+                                      anchor_colour, building(br.name, [&] {
+                                        return make_plate(pts, hw_mm, holes, pin_r, -thick / 2, thick);
+                                      }));
+      b.instance(part, br.name, translation(o, mid));
+      if (br.cheek) {
+        b.instance(part, br.name + "-FRONT",
+                   translation(o, (br.cheek_z_back + br.cheek_z_front) / 2 * mm_per_m));
+      }
+    }
   }
 
   // Pins: one part per distinct length, centred on z = 0 in part coordinates.
   std::vector<std::pair<double, std::size_t>> pin_parts;  // length → part
-  for (const Station& s : st) {
-    const double back = s.on_frame ? ax.anchor_back : ax.band_back;
-    const double front = s.on_lever ? ax.lever_front : ax.band_front;
-    const double length = front - back + 2 * pin_overhang;
+  for (const PinPlan& s : hw.pins) {
+    const double back = s.z_back * mm_per_m, front = s.z_front * mm_per_m;
+    const double length = front - back;
     std::size_t part = m.parts.size();
     for (const auto& [len, idx] : pin_parts) {
       if (std::abs(len - length) < 1e-6) part = idx;
     }
     if (part == m.parts.size()) {
-      const std::string name = "PIN-D" + num(2 * dm.pin_r) + "x" + num(length);
+      const std::string name = "PIN-D" + num(2 * pin_r) + "x" + num(length);
       part = b.part(PartKind::pin, name, "steel", steel_density, pin_colour,
-                    building("pin " + name, [&] { return make_rod(dm.pin_r, -length / 2, length); }));
+                    building("pin " + name, [&] { return make_rod(pin_r, -length / 2, length); }));
       pin_parts.emplace_back(length, part);
     }
     const std::string name = "PIN-" + s.id;
     const double mid = (front + back) / 2;
     // Lever pins move with the lever; the pivot pin and frame pins stay put.
     const gp_Trsf place = s.on_lever && s.id != "PIVOT"
-                              ? compose(lever_place, translation(rel(s.at), mid - lever_mid))
-                              : translation(s.at, mid);
+                              ? compose(lever_place, translation(rel(mm(s.at)), mid - lever_mid))
+                              : translation(mm(s.at), mid);
     b.instance(part, name, place);
-    if (s.carries_band) touch(name, "BAND");
+    if (s.carries_band) {
+      const JointPlan* j = s.id == "A" ? &hw.joint_a : s.id == "B" ? &hw.joint_b : nullptr;
+      if (j && j->kind == JointKind::welded_block) {
+        touch(name, "END-BLOCK-" + s.id);
+      } else {
+        touch(name, "BAND");
+      }
+    }
     if (s.on_lever) touch(name, "LEVER");
-    if (s.on_frame) touch(name, "ANCHOR-" + s.id);
+    if (!s.bracket.empty()) {
+      touch(name, s.bracket);
+      for (const BracketPlan& br : hw.brackets) {
+        if (br.name == s.bracket && br.cheek) touch(name, s.bracket + "-FRONT");
+      }
+    }
   }
 
   m.intended = intended;

@@ -14,6 +14,7 @@ const char* to_string(PartKind kind) {
     case PartKind::grip: return "grip";
     case PartKind::pin: return "pin";
     case PartKind::anchor: return "anchor";
+    case PartKind::block: return "block";
   }
   return "?";
 }

@@ -1,6 +1,7 @@
 // The fab/ folder: one DXF per flat part and cutlist.csv, computed in full before anything is
 // written, then written through a staging folder that is renamed only when every file exists.
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
@@ -11,6 +12,7 @@
 
 #include "geometry/flat_internal.hpp"
 #include "src/errors.hpp"
+#include "src/hardware.hpp"
 #include "src/staging.hpp"
 
 namespace bandforge::geom {
@@ -163,6 +165,33 @@ FabPack make_fab_pack(const Design& design, const Solution& solution, const Brak
     pack.parts.push_back(anchor_plate(design, model, a, static_cast<int>(anchors.size())));
     pack.rows.push_back(row_of(pack.parts.back(), "plate",
                                "becomes " + joined(infos[a].instance_names)));
+  }
+
+  // Welded end blocks (src/hardware.hpp): the profile with the band slot and the pin bore, cut
+  // from plate as thick as the band is wide (flame cut and bored, or milled from bar).
+  for (std::size_t i : parts_of_kind(model, "block")) {
+    FlatPart f = plate_from_solid(model, i);
+    f.name = infos[i].name;
+    std::string file = infos[i].name;
+    std::transform(file.begin(), file.end(), file.begin(),
+                   [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
+    f.file = file + ".dxf";
+    const bool a = infos[i].name.back() == 'A';
+    const JointPlan& j = a ? solution.hardware.joint_a : solution.hardware.joint_b;
+    f.notes = {
+        "WELDED END BLOCK " + std::string(a ? "A" : "B") + "  " + design.project.number + "  " +
+            design.project.title,
+        f.material + " " + num(f.thickness, 2) + " thick (= band width), outline " +
+            num(f.length, 2) + " x " + num(f.width, 2) + ", quantity " + std::to_string(f.quantity),
+        "origin at the pin bore; the band slot " + num(design.band.thickness * 1000, 2) + " wide, " +
+            num(j.slot_depth * 1000, 2) + " deep, opens toward the drum",
+        "weld the band end in the slot: fillet leg " + num(j.weld_leg * 1000, 1) +
+            " on both faces across the band width (welded-block joint; checks on the "
+            "calculation sheet)",
+    };
+    pack.parts.push_back(f);
+    pack.rows.push_back(row_of(f, "plate", "becomes " + joined(infos[i].instance_names) +
+                                               "; bore for the pin, slot for the band end"));
   }
 
   // Pins and the grip are sawn from round bar; their sizes and masses are the solids'.

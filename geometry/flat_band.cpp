@@ -11,6 +11,7 @@
 
 #include "geometry/flat_internal.hpp"
 #include "src/errors.hpp"
+#include "src/hardware.hpp"
 
 namespace bandforge::geom {
 namespace {
@@ -27,14 +28,6 @@ constexpr double lining_max_pitch = 80.0;   // [mm] largest rivet pitch along th
 // (common practice, no source); a stiffer lining has to be bought moulded to the drum radius.
 constexpr double lining_max_strain = 0.03;
 
-// Eye joint (the tail laid back on the run and riveted; common practice, no source): rivet
-// diameter 2t rounded up to a whole millimetre, at least 5 mm; edge and end distance 2d; pitch 3d;
-// as many columns as fit across the width; at least two rows, more until the rivets in single
-// shear at the design's pin allowable shear carry the largest tight-side tension.
-constexpr double joint_rivet_min = 5.0;  // [mm]
-
-const char* end_key(bool a) { return a ? "band.end_a.at" : "band.end_b.at"; }
-
 [[noreturn]] void cannot(const std::string& part, const std::string& what) {
   throw BuildError("cannot flatten the " + part + ": " + what);
 }
@@ -45,18 +38,6 @@ struct LiningRivets {
   double hole = 0;             // [mm]; 0 = bonded lining, no holes
   std::vector<double> angles;  // [rad] from the A end of the wrap
   std::vector<double> across;  // [mm] from one band edge
-};
-
-// The eye joint at each end.
-struct Joint {
-  double rivet = 0;            // hole diameter [mm]
-  double edge = 0, pitch = 0;  // [mm]
-  int rows = 0;                // rows along the strip
-  std::vector<double> across;  // [mm] columns across the width
-  double lap = 0;              // [mm] tail length laid back on the run
-  double tension = 0;          // largest tight-side tension the joint carries [N]
-  double capacity = 0;         // rivet shear capacity of one joint [N]
-  double tau = 0;              // allowable rivet shear stress [Pa]
 };
 
 // Everything in millimetres, from the design and the applied layout.
@@ -70,7 +51,7 @@ struct Plan {
   double centreline = 0;         // the solve's band length, pin centre to pin centre
   double eye = 0;                // allowance per eye: (2π − 1)·ρ
   LiningRivets rivets;
-  Joint joint;
+  const JointPlan* joint[2] = {nullptr, nullptr};  // A, B (src/hardware.hpp)
 };
 
 LiningRivets lining_rivets(const Plan& p) {
@@ -92,34 +73,6 @@ LiningRivets lining_rivets(const Plan& p) {
   return rv;
 }
 
-Joint eye_joint(const Design& d, const Solution& s, const Plan& p) {
-  Joint j;
-  j.rivet = std::max(joint_rivet_min, std::ceil(2 * p.t - 1e-9));
-  j.edge = 2 * j.rivet;
-  j.pitch = 3 * j.rivet;
-  if (p.b < 2 * j.edge) {
-    cannot("band", "band.width = " + num(p.b, 1) + " mm is too narrow for the eye-joint rivets (Ø" +
-                       num(j.rivet, 0) + " mm, " + num(j.edge, 0) +
-                       " mm from each edge): it needs at least " + num(2 * j.edge, 0) + " mm");
-  }
-  const int cols = static_cast<int>(std::floor((p.b - 2 * j.edge) / j.pitch + 1e-9)) + 1;
-  for (int k = 0; k < cols; ++k) {
-    j.across.push_back(cols == 1 ? p.b / 2 : j.edge + k * (p.b - 2 * j.edge) / (cols - 1));
-  }
-  for (const auto& dir : s.results) {
-    for (const DirectionResult& r : dir) j.tension = std::max(j.tension, r.tension_tight);
-  }
-  j.tau = d.band.pin_allowable_shear > 0 ? d.band.pin_allowable_shear
-                                          : d.band.allowable_stress / std::sqrt(3.0);
-  const double per_rivet = j.tau * pi * j.rivet * j.rivet / 4 * 1e-6;  // Pa·mm² → N
-  const int need = static_cast<int>(std::ceil(j.tension / per_rivet - 1e-9));
-  // At least two rows, so that the lap does not hinge about a single row of rivets.
-  j.rows = std::max(2, (need + cols - 1) / cols);
-  j.capacity = per_rivet * j.rows * cols;
-  j.lap = 2 * j.edge + (j.rows - 1) * j.pitch;
-  return j;
-}
-
 Plan plan(const Design& d, const Solution& s) {
   const Layout& L = s.layout;
   Plan p;
@@ -137,26 +90,20 @@ Plan plan(const Design& d, const Solution& s) {
   p.run_b = L.b.free_length * mm_per_m;
   p.centreline = L.band_length * mm_per_m;
   p.eye = (2 * pi - 1) * p.rho;
-  // The eye is bent round the pin with inside radius = pin radius; cold-formed strip needs an
+  p.joint[0] = &s.hardware.joint_a;
+  p.joint[1] = &s.hardware.joint_b;
+  // An eye is bent round the pin with inside radius = pin radius; cold-formed strip needs an
   // inside bend radius of at least its thickness (common practice, no source).
-  if (p.pin_r < p.t) {
+  const bool eyes = p.joint[0]->kind != JointKind::welded_block ||
+                    p.joint[1]->kind != JointKind::welded_block;
+  if (eyes && p.pin_r < p.t) {
     cannot("band", "the eye round the Ø" + num(2 * p.pin_r, 1) + " mm pin (band.pin_diameter) has an "
                    "inside bend radius of " + num(p.pin_r, 1) + " mm, less than the band thickness " +
                    num(p.t, 1) + " mm (band.thickness): a cold-formed eye needs an inside radius of "
-                   "at least one thickness");
+                   "at least one thickness; make band.pin_diameter at least " +
+                   num(2 * (p.t - p.pin_r), 1) + " mm larger, or set band.end_joint = \"welded-block\"");
   }
   p.rivets = lining_rivets(p);
-  p.joint = eye_joint(d, s, p);
-  for (bool a : {true, false}) {
-    const double room = (a ? p.run_a : p.run_b) - p.rho;
-    if (p.joint.lap > room) {
-      cannot("band", "the free run at pin " + std::string(a ? "A" : "B") + " (" + end_key(a) +
-                         ") leaves " + num(room, 1) + " mm of straight strip beyond the eye; the "
-                         "eye joint (" + std::to_string(p.joint.rows) + " rows of Ø" +
-                         num(p.joint.rivet, 0) + " mm rivets) needs a lap of " +
-                         num(p.joint.lap, 1) + " mm: move the pin away from the drum");
-    }
-  }
   return p;
 }
 
@@ -175,51 +122,95 @@ std::string rivet_line(const LiningRivets& rv, double pitch_here) {
 
 FlatPart band_blank(const Design& d, const Solution& s, const PartInfo& band) {
   const Plan p = plan(d, s);
-  const Joint& j = p.joint;
   FlatPart f = flat_part_for(band);
   f.name = "BAND-BLANK";
   f.file = "band-blank.dxf";
   f.thickness = p.t;
 
-  // Stations along the blank from the free end of end A (x = 0).
-  const double x1 = j.lap;                    // B1: eye A starts
-  const double x2 = x1 + 2 * pi * p.rho;      // B2: eye A closes at the run
-  const double x3 = x2 + p.run_a - p.rho;     // B3: tangent point A, roll starts
-  const double x4 = x3 + p.r_b * p.wrap;      // B4: tangent point B, roll ends
-  const double x5 = x4 + p.run_b - p.rho;     // B5: eye B starts
-  const double x6 = x5 + 2 * pi * p.rho;      // B6: eye B closes
-  const double length = x6 + j.lap;
-
-  f.developed = {
-      {"centreline pin A to pin B (solve: run A + wrap arc on r_b + run B)", p.centreline},
-      {"eye A: one turn round the pin on rho = pin radius + t/2, less the rho of run inside it",
-       p.eye},
-      {"eye B: the same", p.eye},
-      {"lap A: tail laid back on run A and riveted (eye joint)", j.lap},
-      {"lap B: the same at end B", j.lap},
+  // Each end as it is made (src/hardware.hpp): a riveted joint is a tail (the lap), an eye of
+  // one turn round the pin on ρ = pin radius + t/2, then the straight run to its tangent point
+  // less the ρ inside the eye; a welded end block takes the strip into its slot, which ends
+  // `cut` from the pin centre, so the strip is the run less that.
+  struct End {
+    const JointPlan* j;
+    bool riveted;
+    double tail, eye, straight, cut;
   };
-  f.contours.push_back(rectangle(length, p.b));
+  End ends[2];
+  for (int i = 0; i < 2; ++i) {
+    const JointPlan* j = p.joint[i];
+    const double run = i == 0 ? p.run_a : p.run_b;
+    const bool riveted = j->kind != JointKind::welded_block;
+    const double cut = riveted ? 0 : (j->block_back - j->slot_depth) * mm_per_m;
+    ends[i] = {j, riveted, riveted ? j->lap * mm_per_m : 0, riveted ? 2 * pi * p.rho : 0,
+               riveted ? run - p.rho : run - cut, cut};
+  }
+  // Stations along the blank from the free end at A (x = 0).
+  std::vector<std::pair<double, std::string>> bends;  // x, what
+  double x = ends[0].tail;
+  if (ends[0].riveted) {
+    bends.push_back({x, "eye A starts"});
+    x += ends[0].eye;
+    bends.push_back({x, "eye A closes"});
+  }
+  const double eye_a_closed = x;
+  x += ends[0].straight;
+  const double roll_start = x;
+  bends.push_back({x, "roll starts (tangent point A)"});
+  x += p.r_b * p.wrap;
+  bends.push_back({x, "roll ends (tangent point B)"});
+  x += ends[1].straight;
+  const double eye_b_start = x;
+  if (ends[1].riveted) {
+    bends.push_back({x, "eye B starts"});
+    x += ends[1].eye;
+    bends.push_back({x, "eye B closes"});
+  }
+  const double length = x + ends[1].tail;
 
-  const double xs[] = {x1, x2, x3, x4, x5, x6};
-  for (int i = 0; i < 6; ++i) {
-    f.bend_lines.push_back({xs[i], 0, xs[i], p.b});
+  f.developed = {{"centreline pin A to pin B (solve: run A + wrap arc on r_b + run B)", p.centreline}};
+  for (int i = 0; i < 2; ++i) {
+    const std::string e = i == 0 ? "A" : "B";
+    if (ends[i].riveted) {
+      f.developed.push_back({"eye " + e + ": one turn round the pin on rho = pin radius + t/2, less "
+                             "the rho of run inside it", (2 * pi - 1) * p.rho});
+      f.developed.push_back({"lap " + e + ": tail laid back on run " + e + " and riveted (" +
+                             to_string(ends[i].j->kind) + ")", ends[i].tail});
+    } else {
+      f.developed.push_back({"end " + e + ": the strip stops in the end block's slot, this far short "
+                             "of the pin centre (welded-block)", -ends[i].cut});
+    }
+  }
+  f.contours.push_back(rectangle(length, p.b));
+  for (std::size_t i = 0; i < bends.size(); ++i) {
+    f.bend_lines.push_back({bends[i].first, 0, bends[i].first, p.b});
     std::string tag = "B";
     tag += std::to_string(i + 1);  // not "B" + std::to_string(): a false -Wrestrict in GCC 12
-    f.tags.push_back({xs[i] + 1.5, p.b + 2.0, 3.5, tag});
+    f.tags.push_back({bends[i].first + 1.5, p.b + 2.0, 3.5, tag});
   }
   // Lining rivets: the same angles as on the lining, developed on the band's neutral radius.
   for (double theta : p.rivets.angles) {
-    for (double y : p.rivets.across) f.holes.push_back({x3 + p.r_b * theta, y, p.rivets.hole / 2});
+    for (double y : p.rivets.across) f.holes.push_back({roll_start + p.r_b * theta, y, p.rivets.hole / 2});
   }
-  // Eye joints: tail holes e, e + pitch, … from each free end, and the run holes they land on
-  // once the eye is closed (the tail point at x lies lap − x from the eye's closing point).
-  for (int row = 0; row < j.rows; ++row) {
-    const double from_end = j.edge + row * j.pitch;
-    for (double y : j.across) {
-      f.holes.push_back({from_end, y, j.rivet / 2});                    // tail A
-      f.holes.push_back({x2 + j.lap - from_end, y, j.rivet / 2});       // run A
-      f.holes.push_back({x5 - (j.lap - from_end), y, j.rivet / 2});     // run B
-      f.holes.push_back({length - from_end, y, j.rivet / 2});           // tail B
+  // Riveted joints: tail holes e, e + pitch, … from each free end, and the run holes they land
+  // on once the eye is closed (the tail point at x lies lap − x from the eye's closing point).
+  for (int i = 0; i < 2; ++i) {
+    if (!ends[i].riveted) continue;
+    const JointPlan& j = *ends[i].j;
+    const double rivet = j.rivet * mm_per_m, edge = j.edge * mm_per_m, pitch = j.pitch * mm_per_m;
+    const double lap = ends[i].tail;
+    for (int row = 0; row < j.rows; ++row) {
+      const double from_end = edge + row * pitch;
+      for (double y_m : j.across) {
+        const double y = y_m * mm_per_m;
+        if (i == 0) {
+          f.holes.push_back({from_end, y, rivet / 2});                       // tail A
+          f.holes.push_back({eye_a_closed + lap - from_end, y, rivet / 2});  // run A
+        } else {
+          f.holes.push_back({eye_b_start - (lap - from_end), y, rivet / 2});  // run B
+          f.holes.push_back({length - from_end, y, rivet / 2});               // tail B
+        }
+      }
     }
   }
   std::sort(f.holes.begin(), f.holes.end(), [](const FlatCircle& a, const FlatCircle& b) {
@@ -227,31 +218,52 @@ FlatPart band_blank(const Design& d, const Solution& s, const PartInfo& band) {
   });
 
   const std::string t = num(p.t, 2), b = num(p.b, 2);
+  std::string bend_list;
+  for (std::size_t i = 0; i < bends.size(); ++i) {
+    bend_list += (i ? ", B" : "B") + std::to_string(i + 1) + " " + bends[i].second;
+  }
   f.notes = {
       "BAND BLANK  " + d.project.number + "  " + d.project.title,
       f.material + " strip " + t + " thick x " + b + " wide, length " + num(length, 2) +
           " developed on the neutral axis (mid-thickness), quantity " + std::to_string(f.quantity),
-      "x = 0 at the free end of end A; B1..B6 on layer BEND; all lengths in mm",
+      "x = 0 at the free end of end A; bend lines on layer BEND: " + bend_list + "; all lengths in mm",
       "length " + num(length, 3) + " = centreline pin A to pin B " + num(p.centreline, 3) +
           " (run A " + num(p.run_a, 3) + " + arc " + num(p.r_b, 3) + " x " + num(p.wrap, 5) +
           " rad + run B " + num(p.run_b, 3) + ")",
-      "  + eye A " + num(p.eye, 3) + " + eye B " + num(p.eye, 3) + ": (2 pi - 1) x rho, rho = pin r " +
-          num(p.pin_r, 2) + " + t/2 = " + num(p.rho, 3) + " (one turn round the pin, less the rho of run inside the eye)",
-      "  + lap A " + num(j.lap, 3) + " + lap B " + num(j.lap, 3) +
-          ": tail laid back on the run outside and riveted (eye joint)",
-      "B1-B2, B5-B6: form eyes A and B round a dia " + num(2 * p.pin_r, 2) +
-          " mandrel (inside radius " + num(p.pin_r, 2) + " >= t), tail outside the run; no pin "
-          "holes: the pins pass through the eyes",
-      "B3-B4: roll to neutral radius " + num(p.r_b, 3) + " (inside radius " +
-          num(p.r_b - p.t / 2, 3) + " = drum radius " + num(p.r, 2) + " + lining " +
-          num(p.lining_t, 2) + "), lining side inside",
-      "eye joint holes dia " + num(j.rivet, 1) + ": " + std::to_string(j.across.size()) +
-          " across x " + std::to_string(j.rows) + " rows in each tail and run, edge " +
-          num(j.edge, 1) + ", pitch " + num(j.pitch, 1) + "; single shear " + num(j.capacity / 1000, 2) +
-          " kN >= largest tight-side tension " + num(j.tension / 1000, 2) + " kN",
-      "  rule: d = max(5, 2t), edge 2d, pitch 3d, at least 2 rows, shear at the pin allowable " +
-          num(j.tau / 1e6, 1) + " MPa (common practice, no source); check the joint for the duty",
   };
+  for (int i = 0; i < 2; ++i) {
+    const std::string e = i == 0 ? "A" : "B";
+    const JointPlan& j = *ends[i].j;
+    if (ends[i].riveted) {
+      f.notes.push_back("  + eye " + e + " " + num((2 * pi - 1) * p.rho, 3) + ": (2 pi - 1) x rho, rho = pin r " +
+                        num(p.pin_r, 2) + " + t/2 = " + num(p.rho, 3) +
+                        " (one turn round the pin, less the rho of run inside the eye)");
+      f.notes.push_back("  + lap " + e + " " + num(ends[i].tail, 3) + ": tail laid back on the run outside and riveted (" +
+                        to_string(j.kind) + ")");
+      f.notes.push_back(
+          "end " + e + " joint holes dia " + num(j.rivet * mm_per_m, 1) + ": " +
+          std::to_string(j.across.size()) + " across x " + std::to_string(j.rows) +
+          " rows in the tail and the run, edge " + num(j.edge * mm_per_m, 1) + ", pitch " +
+          num(j.pitch * mm_per_m, 1) + "; rivet shear capacity " + num(j.rivet_capacity / 1000, 2) +
+          " kN >= largest tension at this end " + num(j.tension / 1000, 2) + " kN" +
+          (j.kind == JointKind::riveted_lap
+               ? " (rule: d = max(5, 2t), edge 2d, pitch 3d, at least 2 rows; common practice, no source)"
+               : " (rivet from the ISO 1051 series, least spacings of EN 1993-1-8 Table 3.3)"));
+    } else {
+      f.notes.push_back("  - end " + e + " " + num(ends[i].cut, 3) +
+                        ": the strip ends in the slot of END-BLOCK-" + e + ", " + num(ends[i].cut, 2) +
+                        " from the pin centre; weld both faces at the slot mouth, fillet leg " +
+                        num(j.weld_leg * mm_per_m, 1) + " (welded-block)");
+    }
+  }
+  if (ends[0].riveted || ends[1].riveted) {
+    f.notes.push_back("eyes: form round a dia " + num(2 * p.pin_r, 2) + " mandrel (inside radius " +
+                      num(p.pin_r, 2) + " >= t), tail outside the run; no pin holes: the pins pass "
+                      "through the eyes");
+  }
+  f.notes.push_back("roll between tangent points to neutral radius " + num(p.r_b, 3) + " (inside radius " +
+                    num(p.r_b - p.t / 2, 3) + " = drum radius " + num(p.r, 2) + " + lining " +
+                    num(p.lining_t, 2) + "), lining side inside");
   if (p.rivets.hole > 0) {
     f.notes.push_back("lining rivet holes: " +
                       rivet_line(p.rivets, p.rivets.angles.size() > 1

@@ -28,7 +28,7 @@
 namespace bandforge::geom {
 
 /// What a part is, so that views and reports can style it (e.g. draw pins with centre lines).
-enum class PartKind { drum, lining, band, lever, grip, pin, anchor };
+enum class PartKind { drum, lining, band, lever, grip, pin, anchor, block };
 
 const char* to_string(PartKind kind);
 

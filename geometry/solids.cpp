@@ -148,6 +148,10 @@ TopoDS_Shape make_band(const BandPath& p) {
     q.t_out = add(e.tangent_point, radial, h);
     q.t_in = add(e.tangent_point, radial, -h);
     q.far = add(e.pin, u, -eye_outer);
+    if (!e.eye) {  // a straight end across the strip
+      q.e_out = add(add(e.pin, u, e.cut), radial, h);
+      q.e_in = add(add(e.pin, u, e.cut), radial, -h);
+    }
     return q;
   };
   const EndPoints a = end_points(p.a), b = end_points(p.b);
@@ -157,16 +161,36 @@ TopoDS_Shape make_band(const BandPath& p) {
   w.line(a.e_out, a.t_out);
   w.arc(a.t_out, at({0, 0}, p.r_band + h, mid), b.t_out);
   w.line(b.t_out, b.e_out);
-  w.arc(b.e_out, b.far, b.e_in);
+  if (p.b.eye) {
+    w.arc(b.e_out, b.far, b.e_in);
+  } else {
+    w.line(b.e_out, b.e_in);
+  }
   w.line(b.e_in, b.t_in);
   w.arc(b.t_in, at({0, 0}, p.r_band - h, mid), a.t_in);
   w.line(a.t_in, a.e_in);
-  w.arc(a.e_in, a.far, a.e_out);
+  if (p.a.eye) {
+    w.arc(a.e_in, a.far, a.e_out);
+  } else {
+    w.line(a.e_in, a.e_out);
+  }
   TopoDS_Wire outer = w.wire();
   // The band lies left of its outer arc when that arc runs CCW (sense +1).
   if (p.sense < 0) outer.Reverse();
-  return extrude(outer, {hole_wire(p.a.pin, p.eye_inner, z0), hole_wire(p.b.pin, p.eye_inner, z0)},
-                 z0, p.width);
+  std::vector<TopoDS_Wire> holes;
+  if (p.a.eye) holes.push_back(hole_wire(p.a.pin, p.eye_inner, z0));
+  if (p.b.eye) holes.push_back(hole_wire(p.b.pin, p.eye_inner, z0));
+  return extrude(outer, holes, z0, p.width);
+}
+
+TopoDS_Shape make_end_block(const BlockDims& d) {
+  const double h = d.height / 2, s = d.slot_width / 2, x_slot = -d.back + d.slot_depth;
+  Profile w(0);
+  const Vec2 pts[] = {{d.front, -h}, {d.front, h},    {-d.back, h}, {-d.back, s},
+                      {x_slot, s},   {x_slot, -s},    {-d.back, -s}, {-d.back, -h}};
+  const std::size_t n = std::size(pts);
+  for (std::size_t i = 0; i < n; ++i) w.line(pts[i], pts[(i + 1) % n]);
+  return extrude(w.wire(), {hole_wire({0, 0}, d.bore, 0)}, 0, d.width);
 }
 
 TopoDS_Shape make_plate(const std::vector<Vec2>& centres, double radius,

@@ -35,6 +35,8 @@ struct BandEndPath {
   Vec2 pin;            ///< pin centre E
   Vec2 tangent_point;  ///< T on the centreline circle
   double tangent_angle = 0;
+  bool eye = true;     ///< an eye round the pin; false: a straight end `cut` from the pin
+  double cut = 0;      ///< distance from the pin centre to a straight end, along the run [mm]
 };
 
 /// Band profile [mm]: centreline line–arc–line from pin A to pin B, tangent to `r_band`, offset
@@ -51,6 +53,20 @@ struct BandPath {
 };
 
 TopoDS_Shape make_band(const BandPath& p);
+
+/// A welded end block [mm], part coordinates: the pin bore at the origin, the band's run along
+/// −x, the band slot on the mid-plane y = 0 opening in the back face, z from 0 to `width`.
+struct BlockDims {
+  double front = 0;       ///< block face beyond the pin (+x), from the pin centre
+  double back = 0;        ///< block face toward the drum (−x), from the pin centre
+  double height = 0;      ///< across the run (y)
+  double slot_depth = 0;  ///< slot from the back face toward the bore
+  double slot_width = 0;  ///< = band thickness
+  double bore = 0;        ///< bore radius
+  double width = 0;       ///< along z (= band width)
+};
+
+TopoDS_Shape make_end_block(const BlockDims& d);
 
 /// A plate in the z = const plane whose outline is the convex hull of discs of `radius` about
 /// `centres`, with round holes of `hole_radius` at `holes`, z from z0 to z0 + thickness.

@@ -46,10 +46,9 @@ TCollection_ExtendedString utf8(const std::string& s) {
 }
 
 // The XCAF document: an assembly named after the design, one shape label per part, one
-// component per instance.
-Handle(TDocStd_Document) make_document(const BrakeModel::Impl& m, const std::string& name) {
-  Handle(TDocStd_Document) doc;
-  XCAFApp_Application::GetApplication()->NewDocument("MDTV-XCAF", doc);
+// component per instance. `doc` is closed by its owner (a DocumentScope).
+void make_document(const BrakeModel::Impl& m, const std::string& name,
+                   const Handle(TDocStd_Document)& doc) {
   XCAFDoc_DocumentTool::SetLengthUnit(doc, 1.0, UnitsMethods_LengthUnit_Millimeter);
   Handle(XCAFDoc_ShapeTool) shapes = XCAFDoc_DocumentTool::ShapeTool(doc->Main());
   Handle(XCAFDoc_ColorTool) colours = XCAFDoc_DocumentTool::ColorTool(doc->Main());
@@ -69,7 +68,6 @@ Handle(TDocStd_Document) make_document(const BrakeModel::Impl& m, const std::str
     TDataStd_Name::Set(comp, utf8(in.name));
   }
   shapes->UpdateAssemblies();
-  return doc;
 }
 
 std::string read_file(const std::string& path) {
@@ -95,7 +93,9 @@ void write_step(const BrakeModel& model, const Design& design, const std::string
   const std::string partial = path + ".partial";
   QuietOcct quiet;
   try {
-    const Handle(TDocStd_Document) doc = make_document(m, header.assembly);
+    const DocumentScope scope;
+    const Handle(TDocStd_Document)& doc = scope.doc;
+    make_document(m, header.assembly, doc);
     StaticSettings settings;
     // The schema must be set after Init() and before the writer exists (TOOLCHAIN.md).
     STEPControl_Controller::Init();

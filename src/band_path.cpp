@@ -1,4 +1,4 @@
-#include "geometry/band_path.hpp"
+#include "src/band_path.hpp"
 
 #include <cmath>
 #include <numbers>
@@ -6,7 +6,7 @@
 
 #include "src/errors.hpp"
 
-namespace bandforge::geom {
+namespace bandforge {
 
 EndLayout tangent_end(Vec2 pin, double radius, int sense, bool leaving_a) {
   EndLayout e;
@@ -75,4 +75,4 @@ Layout released_layout(const Design& design, const Layout& applied) {
   return out;
 }
 
-}  // namespace bandforge::geom
+}  // namespace bandforge

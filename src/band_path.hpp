@@ -6,7 +6,7 @@
 #include "src/design.hpp"
 #include "src/mechanics.hpp"
 
-namespace bandforge::geom {
+namespace bandforge {
 
 /// The band end at `pin` tangent to the circle `radius` about the origin. `leaving_a`: end A
 /// (tangent angle ψ + s·α), otherwise end B (ψ − s·α). Throws BuildError if the pin is not
@@ -24,4 +24,4 @@ Vec2 rotate_about(Vec2 p, Vec2 centre, double angle);
 /// re-tangent from the moved pins; wrap, band length and arms recomputed.
 Layout released_layout(const Design& design, const Layout& applied);
 
-}  // namespace bandforge::geom
+}  // namespace bandforge

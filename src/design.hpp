@@ -23,6 +23,10 @@ enum class Mount { lever, frame };
 /// How the two band tensions act on the lever.
 enum class BrakeKind { simple, differential, summing };
 
+/// Which joint the band ends get ([band] end_joint); automatic: the first that fits the run
+/// (riveted lap, compact riveted lap, welded end block), src/hardware.hpp.
+enum class EndJointChoice { automatic, riveted_lap, riveted_compact, welded_block };
+
 /// Which tension model relates the band to the drum (REFERENCE §1.11).
 enum class TensionModel { thin, thick };
 
@@ -86,6 +90,7 @@ struct Band {
   double pin_allowable_shear = 0.0;  ///< allowable pin shear stress [Pa]; default σ_allow/√3
   double clearance = 0.0;            ///< radial clearance when released [m]
   TensionModel model = TensionModel::thin;
+  EndJointChoice end_joint = EndJointChoice::automatic;  ///< both ends
 };
 
 struct Lever {

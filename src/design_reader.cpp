@@ -712,7 +712,7 @@ class Reader {
 
   void read_band(const Section& s, bool is_concept) {
     check_keys(s, {"width", "thickness", "allowable_stress", "sense", "end_a", "end_b",
-                   "pin_diameter", "clearance", "pin_allowable_shear", "model"});
+                   "pin_diameter", "clearance", "pin_allowable_shear", "model", "end_joint"});
     Band& b = d_.band;
     b.width = positive(s, "width", Quantity::length, "the steel band width");
     if (b.width > d_.drum.width) {
@@ -771,6 +771,12 @@ class Reader {
     }
     if (auto model = choice(s, "model", {"thin", "thick"})) {
       b.model = *model == 0 ? TensionModel::thin : TensionModel::thick;
+    }
+    if (auto joint = choice(s, "end_joint", {"auto", "riveted-lap", "riveted-compact", "welded-block"})) {
+      constexpr EndJointChoice kinds[] = {EndJointChoice::automatic, EndJointChoice::riveted_lap,
+                                          EndJointChoice::riveted_compact,
+                                          EndJointChoice::welded_block};
+      b.end_joint = kinds[*joint];
     }
   }
 
@@ -1088,6 +1094,8 @@ pin_diameter = "12 mm"         # band-end and pivot pin diameter
 clearance = "1.5 mm"           # radial clearance when released (default 1.5 mm)
 # pin_allowable_shear = "30 MPa"  # optional; default allowable_stress/√3
 # model = "thick"              # optional: "thin" (default) or "thick" band tension model
+# end_joint = "auto"           # optional: "auto" (default: the first that fits the run),
+#                              # "riveted-lap", "riveted-compact" or "welded-block"
 
 [lever]
 pivot = ["110 mm", "-190 mm"]  # pivot centre [x, y]

@@ -215,6 +215,37 @@ Layout pin_layout(const Design& d) {
                 "reaches the drum without crossing the other");
   }
 
+  // An eye (pin radius + band thickness) may not cut through the other end's straight run.
+  for (int i = 0; i < 2; ++i) {
+    const EndLayout& e = i == 0 ? L.a : L.b;
+    const EndLayout& other = i == 0 ? L.b : L.a;
+    const Vec2 ab = other.tangent_point - other.pin, ap = e.pin - other.pin;
+    const double len2 = ab.x * ab.x + ab.y * ab.y;
+    const double u = std::clamp((ap.x * ab.x + ap.y * ab.y) / len2, 0.0, 1.0);
+    const double gap = norm(ap - Vec2{u * ab.x, u * ab.y});
+    const double need = d.band.pin_diameter / 2 + 1.5 * d.band.thickness + d.band.clearance;
+    if (gap < need) {
+      const char* key = i == 0 ? "band.end_a.at" : "band.end_b.at";
+      design_fail(d, key, mm_point(e.pin),
+                  "the band end round this pin would cut the other end's straight run: it is " +
+                      mm(gap) + " from that run, the eye and the clearance need " + mm(need) +
+                      "; move " + key + " at least " + mm(need - gap) + " away from that run");
+    }
+  }
+  // The two band ends each wrap round their pin (pin radius + band thickness): they cannot
+  // pass through each other.
+  {
+    const double apart = norm(band.end_a.at - band.end_b.at);
+    const double need = d.band.pin_diameter + 2 * d.band.thickness + d.band.clearance;
+    if (apart < need) {
+      design_fail(d, "band.end_b.at", mm_point(band.end_b.at),
+                  "the band ends round the two pins would overlap: the pins are " + mm(apart) +
+                      " apart, two eyes (pin_diameter/2 + band thickness each) and the clearance "
+                      "need at least " + mm(need) + "; move band.end_b.at at least " +
+                      mm(need - apart) + " further from band.end_a.at");
+    }
+  }
+
   const double net = L.a.arm + L.b.arm;
   if (std::abs(net) < 1e-6 * L.r) {
     design_fail(d, "lever.pivot", mm_point(O),
@@ -667,6 +698,9 @@ Solution solve(const Design& design) {
   s.capacity = capacity_at(design, L, f[0], design.band.model);
   s.thermal = thermal_of(design, s);
   add_checks(design, s);
+  // What bandforge adds by itself (brackets, end joints), with its own checks.
+  s.hardware = plan_hardware(design, s);
+  s.checks.insert(s.checks.end(), s.hardware.checks.begin(), s.hardware.checks.end());
   add_warnings(design, s);
   return s;
 }

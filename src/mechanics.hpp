@@ -7,7 +7,9 @@
 #include <string>
 #include <vector>
 
+#include "src/check.hpp"
 #include "src/design.hpp"
+#include "src/hardware.hpp"
 
 namespace bandforge {
 
@@ -63,19 +65,6 @@ struct DirectionResult {
   Vec2 pivot_reaction;          ///< force of the pivot pin on the lever [N]
 };
 
-/// One verified figure against its limit.
-struct Check {
-  std::string id;           ///< stable identifier, e.g. "lining_pressure"
-  std::string title;        ///< human wording, e.g. "Lining pressure at the tight end"
-  double value = 0;         ///< in SI
-  double limit = 0;         ///< in SI
-  std::string unit;         ///< SI unit symbol of value and limit
-  bool upper = true;        ///< true: ok when value ≤ limit; false: ok when value ≥ limit
-  bool ok = true;
-  std::string source;       ///< where the limit comes from
-  std::string note;         ///< which case governs (direction, friction)
-};
-
 /// Thermal results when the design has a [duty] block.
 struct Thermal {
   bool present = false;
@@ -111,6 +100,7 @@ struct Solution {
   Thermal thermal;
   std::vector<Check> checks;
   std::vector<std::string> warnings;
+  HardwarePlan hardware;  ///< generated brackets, joints and axial stack (pin layouts only)
 
   const DirectionResult& nominal(bool a_tight) const { return results[a_tight ? 0 : 1][1]; }
   const DirectionResult& primary() const { return nominal(primary_a_tight); }

@@ -64,6 +64,73 @@ json direction_block(const Solution& s, int dir) {
 
 }  // namespace
 
+namespace {
+
+json point(Vec2 p) { return json::array({p.x, p.y}); }
+
+json joint_block(const JointPlan& jp) {
+  json j{{"kind", to_string(jp.kind)},
+         {"chosen", jp.chosen_automatically ? "automatic" : "design file"},
+         {"tension_N", jp.tension},
+         {"room_m", jp.room},
+         {"needs_m", jp.needs}};
+  if (jp.kind == JointKind::welded_block) {
+    j["block"] = {{"front_m", jp.block_front},   {"back_m", jp.block_back},
+                  {"height_m", jp.block_height}, {"slot_depth_m", jp.slot_depth},
+                  {"weld_leg_m", jp.weld_leg}};
+  } else {
+    j["rivets"] = {{"diameter_m", jp.rivet}, {"edge_m", jp.edge},     {"pitch_m", jp.pitch},
+                   {"rows", jp.rows},        {"columns", jp.columns}, {"lap_m", jp.lap},
+                   {"capacity_N", jp.rivet_capacity}};
+  }
+  return j;
+}
+
+// The generated hardware (src/hardware.hpp): what build makes, decided before any solid.
+json hardware_block(const HardwarePlan& h) {
+  if (!h.present) return nullptr;
+  json brackets = json::array();
+  for (const BracketPlan& b : h.brackets) {
+    json holes = json::array(), outline = json::array();
+    for (Vec2 p : b.holes) holes.push_back(point(p));
+    for (Vec2 p : b.outline) outline.push_back(point(p));
+    brackets.push_back({{"name", b.name},
+                        {"pins", b.pins},
+                        {"holes_m", holes},
+                        {"outline_m", outline},
+                        {"half_width_m", b.half_width},
+                        {"thickness_m", b.thickness},
+                        {"z_back_m", b.z_back},
+                        {"z_front_m", b.z_front},
+                        {"side", b.side == BracketSide::behind ? "behind" : "front"},
+                        {"behind_drum", b.behind_drum},
+                        {"loads_N", b.loads}});
+  }
+  json pins = json::array();
+  for (const PinPlan& p : h.pins) {
+    pins.push_back({{"id", p.id},
+                    {"at_m", point(p.at)},
+                    {"on_lever", p.on_lever},
+                    {"carries_band", p.carries_band},
+                    {"bracket", p.bracket},
+                    {"z_back_m", p.z_back},
+                    {"z_front_m", p.z_front}});
+  }
+  const AxialPlan& a = h.axial;
+  return {{"buildable", h.refusal.empty()},
+          {"refusal", h.refusal.empty() ? json(nullptr) : json(h.refusal)},
+          {"axial", {{"lever_back_m", a.lever_back},
+                     {"lever_front_m", a.lever_front},
+                     {"lever_outboard", a.lever_outboard},
+                     {"gap_m", a.gap},
+                     {"pin_overhang_m", a.pin_overhang}}},
+          {"brackets", brackets},
+          {"pins", pins},
+          {"joints", {{"a", joint_block(h.joint_a)}, {"b", joint_block(h.joint_b)}}}};
+}
+
+}  // namespace
+
 nlohmann::json json_report(const Design& design, const Solution& s) {
   const Layout& L = s.layout;
   json j;
@@ -120,6 +187,7 @@ nlohmann::json json_report(const Design& design, const Solution& s) {
   } else {
     j["thermal"] = nullptr;
   }
+  j["hardware"] = hardware_block(s.hardware);
   json checks = json::array();
   for (const Check& c : s.checks) {
     checks.push_back({{"id", c.id},

@@ -11,6 +11,7 @@
 #include <future>
 #include <iostream>
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -187,9 +188,11 @@ void build_outputs(const BuildCommand& cmd) {
     geom::BuildOptions released = applied;
     released.released = true;
     const geom::BrakeModel shown = geom::build_brake(design, solution, applied);
-    const geom::BrakeModel phantom = geom::build_brake(design, solution, released);
+    // A layout whose released state fails its check is drawn without the phantom lever.
+    std::optional<geom::BrakeModel> phantom;
+    if (solution.hardware.release_ok) phantom = geom::build_brake(design, solution, released);
     const std::vector<geom::CutListRow> cut = geom::cut_list(design, solution, shown);
-    drawing::write_drawing(design, solution, &shown, &phantom, cut,
+    drawing::write_drawing(design, solution, &shown, phantom ? &*phantom : nullptr, cut,
                            cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
                            pdf_path);
   });
