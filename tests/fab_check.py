@@ -11,8 +11,10 @@ file (tomllib), `bandforge solve --json` and `bandforge build --json` (solid vol
   lining blank length = wrap x (r + t_lining/2), area = length x width - holes;
   lever plate  area x thickness = LEVER solid volume, stadium area and perimeter by hand;
   anchor plate area x thickness = ANCHOR solid volume, stadium by hand;
-the cut list against the solids, byte-identical files from two processes, and a design whose
-lining cannot be rolled flat: exit status 3, a message naming lining.thickness, no files.
+the cut list against the solids, byte-identical files from two processes, a design whose
+lining cannot be rolled flat: exit status 3, a message naming lining.thickness, no files; and
+welded end blocks: profile area x band width = block solid, cut-list rows, the band blank without
+eyes and laps.
 
 Usage: fab_check.py --bandforge EXE --examples DIR --work DIR
 Run with /usr/bin/python3 (TOOLCHAIN.md: the python3 on PATH may not see Debian's ezdxf).
@@ -422,6 +424,47 @@ def check_stale(exe, design_path, work):
           f"rebuild without a lining left {files}")
 
 
+def check_welded_blocks(exe, design_path, work):
+    """Welded end blocks (issue 12): each has a DXF profile (closed outline, bore as a circle,
+    1:1 mm) whose area times the band width is the block solid's volume, a cut-list row, and the
+    band blank loses its eyes and laps: length = centreline - 2 x (bore wall + pin radius)."""
+    text = open(design_path, encoding="utf-8").read()
+    if "pin_diameter = " not in text:
+        return
+    welded = os.path.join(work, "welded.toml")
+    open(welded, "w", encoding="utf-8").write(
+        text.replace("pin_diameter = ", 'end_joint = "welded-block"\npin_diameter = ', 1))
+    out = os.path.join(work, "welded")
+    shutil.rmtree(out, ignore_errors=True)
+    built = json.loads(run([exe, "build", welded, "-o", out, "--json"]).stdout)
+    solved = json.loads(run([exe, "solve", welded, "--json"]).stdout)
+    parts = {p["name"]: p for p in built["parts"]}
+    design = tomllib.loads(open(welded, encoding="utf-8").read())
+    b = mm(design["band"]["width"])
+    d_pin = mm(design["band"]["pin_diameter"])
+    rows = {row["part"]: row for row in csv.DictReader(open(os.path.join(out, "fab", "cutlist.csv"), newline=""))}
+    for end in "AB":
+        name = f"END-BLOCK-{end}"
+        path = os.path.join(out, "fab", f"end-block-{end.lower()}.dxf")
+        if not check(os.path.exists(path) and name in parts, f"welded: {name} has a solid and a DXF"):
+            continue
+        outline, holes, notes, _ = read_dxf(path, "r2000")
+        check(len(holes) == 1 and close(holes[0][2] * 2, d_pin, 1e-9), f"welded: {name} bore dia {d_pin}")
+        check(close(net(outline, holes) * b, parts[name]["volume_mm3"], 1e-6),
+              f"welded: {name} profile area x band width vs solid")
+        joint = solved["hardware"]["joints"][end.lower()]["block"]
+        width, height = bbox(outline)
+        check(close(width, (joint["front_m"] + joint["back_m"]) * 1000, 1e-9) and
+              close(height, joint["height_m"] * 1000, 1e-9), f"welded: {name} outline size")
+        check(name in rows and int(rows[name]["quantity"]) == 1, f"welded: {name} cut-list row")
+    band_outline, _, _, _ = read_dxf(os.path.join(out, "fab", "band-blank.dxf"), "r2000")
+    band_length, _ = bbox(band_outline)
+    cut = {e: (solved["hardware"]["joints"][e]["block"]["back_m"] -
+               solved["hardware"]["joints"][e]["block"]["slot_depth_m"]) * 1000 for e in "ab"}
+    check(close(band_length, solved["band_length_m"] * 1000 - cut["a"] - cut["b"], 1e-9),
+          "welded: band blank = centreline less the two slot ends")
+
+
 def main():
     ap = argparse.ArgumentParser()
     ap.add_argument("--bandforge", required=True)
@@ -439,6 +482,7 @@ def main():
     if pin_designs:
         check_refusal(a.bandforge, pin_designs[0], a.work)
         check_stale(a.bandforge, pin_designs[0], a.work)
+        check_welded_blocks(a.bandforge, pin_designs[0], a.work)
     print(f"{len(failures)} failure(s)")
     return 1 if failures else 0
 

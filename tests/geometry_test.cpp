@@ -9,6 +9,8 @@
 
 #include <gtest/gtest.h>
 
+#include <gp_Pnt2d.hxx>
+
 #include <BRepAlgoAPI_Common.hxx>
 #include <BRepBuilderAPI_MakeVertex.hxx>
 #include <BRepClass3d_SolidClassifier.hxx>
@@ -23,6 +25,7 @@
 
 #include "geometry/assemble.hpp"
 #include "src/band_path.hpp"
+#include "src/hardware.hpp"
 #include "geometry/brake_model.hpp"
 #include "geometry/occt_model.hpp"
 #include "src/design_reader.hpp"
@@ -532,6 +535,133 @@ TEST(Examples, EveryPinLayoutExampleBuildsInBothStates) {
     ++built;
   }
   EXPECT_GE(built, 1);
+}
+
+// ---- Generated hardware (issue 12) ---------------------------------------------------------
+
+TEST(Hardware, SharedBracketBuildsWithNoInterference) {
+  // End A 30 mm from the pivot: one bracket with two bores (tests/hardware_test.cpp), and the
+  // assembly passes every validity and clearance check.
+  const Built x = build(read_design_text(edited("pivot = [\"-110 mm\", \"-300 mm\"]",
+                                                "pivot = [\"-90 mm\", \"-300 mm\"]"),
+                                         "beside.toml"));
+  EXPECT_TRUE(x.model.all_valid());
+  for (const ContactCheck& c : x.model.contacts()) EXPECT_TRUE(c.ok) << c.part_a << "/" << c.part_b;
+  const PartInfo& b = part(x.model, "BRACKET-A-PIVOT");
+  EXPECT_EQ(b.instance_names, std::vector<std::string>{"BRACKET-A-PIVOT"});
+  // The plate: the hull of the two bores and their lug ends grown by w/2, less two Ø16 holes,
+  // times its thickness; its area by the shoelace formula on the hull offset (Steiner: area of
+  // the hull + perimeter·r + π·r²).
+  const BracketPlan& br = x.solution.hardware.brackets[0];
+  std::vector<gp_Pnt2d> pts;
+  for (Vec2 p : br.outline) pts.emplace_back(p.x * 1000, p.y * 1000);
+  // Convex hull of the four points, counter-clockwise (gift wrapping, written out here).
+  std::vector<gp_Pnt2d> hull;
+  std::size_t start = 0;
+  for (std::size_t i = 1; i < pts.size(); ++i) {
+    if (pts[i].X() < pts[start].X()) start = i;
+  }
+  std::size_t cur = start;
+  do {
+    hull.push_back(pts[cur]);
+    std::size_t next = (cur + 1) % pts.size();
+    for (std::size_t i = 0; i < pts.size(); ++i) {
+      const double c = (pts[next].X() - pts[cur].X()) * (pts[i].Y() - pts[cur].Y()) -
+                       (pts[next].Y() - pts[cur].Y()) * (pts[i].X() - pts[cur].X());
+      if (c < 0) next = i;
+    }
+    cur = next;
+  } while (cur != start && hull.size() <= pts.size());
+  double area = 0, perimeter = 0;
+  for (std::size_t i = 0; i < hull.size(); ++i) {
+    const gp_Pnt2d& p = hull[i];
+    const gp_Pnt2d& q = hull[(i + 1) % hull.size()];
+    area += (p.X() * q.Y() - q.X() * p.Y()) / 2;
+    perimeter += p.Distance(q);
+  }
+  const double r = br.half_width * 1000, thick = br.thickness * 1000;
+  const double plate = (area + perimeter * r + pi * r * r - 2 * pi * 8 * 8) * thick;
+  EXPECT_NEAR(b.volume, plate, 1e-6 * plate);
+}
+
+TEST(Hardware, WeldedEndBlocksAreBuiltWhereThePlanPutsThem) {
+  const Built x = build(read_design_text(
+      edited("pin_diameter = ", "end_joint = \"welded-block\"\npin_diameter = "), "welded.toml"));
+  EXPECT_TRUE(x.model.all_valid());
+  for (const ContactCheck& c : x.model.contacts()) EXPECT_TRUE(c.ok) << c.part_a << "/" << c.part_b;
+  // Block by hand (tests/hardware_test.cpp, WeldedBlockByHand): front 16, back 21, height 24,
+  // slot 9 × 3, bore Ø16, 80 wide: (37·24 − 9·3 − π·8²)·80 = 52 795 mm³.
+  const double block = (37 * 24 - 9 * 3 - pi * 64) * 80;
+  EXPECT_NEAR(part(x.model, "END-BLOCK-A").volume, block, 1e-6 * block);
+  EXPECT_NEAR(part(x.model, "END-BLOCK-B").volume, block, 1e-6 * block);
+  // Each block is placed with its bore on its pin.
+  const PartInfo& block_a = part(x.model, "END-BLOCK-A");
+  ASSERT_EQ(block_a.instance_origins.size(), 1u);
+  EXPECT_NEAR(block_a.instance_origins[0].x, Ax, 1e-9);
+  EXPECT_NEAR(block_a.instance_origins[0].y, Ay, 1e-9);
+  // The band now ends in the slots, 8 + 4 = 12 mm short of each pin centre: its volume is
+  // t·b·(centreline − 2·12), the eyes gone.
+  const double L = x.solution.layout.band_length * 1000;
+  EXPECT_NEAR(part(x.model, "BAND").volume, t * b * (L - 24), 1e-7 * t * b * L);
+  // The pins go through the blocks, not the band.
+  bool pin_in_block = false;
+  for (const auto& [p, q] : x.model.impl().intended) {
+    pin_in_block = pin_in_block || (p == "END-BLOCK-A" && q == "PIN-A");
+  }
+  EXPECT_TRUE(pin_in_block);
+}
+
+TEST(Hardware, ReleaseThatCannotClearIsACheckNotARefusal) {
+  // The first sweep's invalid band solid: a differential-like layout whose net lever arm is
+  // 4 mm, so the release rotation φ·c/|m_A + m_B| is about 110°; turned that far, pin A swings
+  // across the band and the released band profile crosses itself. The applied state is sound
+  // and builds; the released state fails the check release_clearance, and asking for it names
+  // the key to change.
+  const Design d = read_design_text(R"(
+[project]
+title = "Released state regression"
+number = "REL-1"
+[drum]
+diameter = "540.24 mm"
+width = "180 mm"
+bore = "100 mm"
+rotation = "ccw"
+material = "cast-iron"
+[lining]
+material = "iron"
+thickness = "0 mm"
+[band]
+width = "145 mm"
+thickness = "4 mm"
+allowable_stress = "100 MPa"
+sense = "cw"
+end_a = { mount = "lever", at = ["-74.85 mm", "-287.12 mm"] }
+end_b = { mount = "frame", at = ["-27.22 mm", "-308.25 mm"] }
+pin_diameter = "24 mm"
+[lever]
+pivot = ["-3.88 mm", "-337.59 mm"]
+handle = ["-444.48 mm", "93.55 mm"]
+width = "55 mm"
+thickness = "18 mm"
+allowable_stress = "120 MPa"
+[load]
+torque = "2000 N*m"
+)", "release.toml");
+  const Solution s = solve(d);
+  EXPECT_GT(std::abs(s.layout.release_rotation) * 180 / pi, 90);
+  EXPECT_FALSE(s.hardware.release_ok);
+  bool failed = false;
+  for (const Check& c : s.checks) failed = failed || (c.id == "release_clearance" && !c.ok);
+  EXPECT_TRUE(failed);
+  const Built applied = build(d);
+  EXPECT_TRUE(applied.model.all_valid());
+  try {
+    build(d, /*released=*/true);
+    FAIL() << "the released state was built";
+  } catch (const BuildError& e) {
+    EXPECT_NE(std::string(e.what()).find("cannot build the released state"), std::string::npos) << e.what();
+    EXPECT_NE(std::string(e.what()).find("at least"), std::string::npos) << e.what();
+  }
 }
 
 }  // namespace
