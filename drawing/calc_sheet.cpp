@@ -13,6 +13,7 @@
 #include "drawing/sheet.hpp"
 #include "drawing/table.hpp"
 #include "drawing/text_fit.hpp"
+#include "src/report.hpp"
 
 namespace bandforge::drawing {
 namespace {
@@ -734,6 +735,18 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
   b.push_back(heading("7  Checks"));
   b.push_back(table_block(checks_table(s, u)));
   int section = 8;
+  if (s.hardware.present) {
+    // What bandforge added by itself, with the rules behind it (README "Generated hardware").
+    std::vector<std::string> lines = hardware_summary(s.hardware, u);
+    lines.push_back("Joints: the first of riveted-lap (rivet d = max(5 mm, 2t), edge 2d, pitch 3d; "
+                    "common practice), riveted-compact (ISO 1051 rivet, EN 1993-1-8 Table 3.3 least "
+                    "spacings) and welded-block (fillet welds at the slot mouth) that fits the run and "
+                    "passes its checks. Frame plates: S235 (EN 10025-2), one stock thickness, the least "
+                    "that passes bore bearing 0.90 F_y and plate bending 0.60 F_y (single plate) or "
+                    "cheek net section 0.45 F_y (two cheeks) (AISC ASD 1989, from memory).");
+    b.push_back(heading(std::to_string(section++) + "  Generated hardware"));
+    b.push_back(paragraphs(lines, true));
+  }
   if (!s.warnings.empty()) {
     b.push_back(heading(std::to_string(section++) + "  Warnings"));
     b.push_back(paragraphs(s.warnings, true));

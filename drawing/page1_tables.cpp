@@ -71,6 +71,15 @@ std::vector<std::string> general_notes(const Design& d, const Solution& s, UnitS
   std::vector<std::string> n;
   n.push_back(std::string("Dimensions in ") + (u == UnitSystem::si ? "mm" : "inches") +
               " from the drum centre; ( ) = reference dimension computed from the pin layout.");
+  if (s.hardware.present) {
+    const HardwarePlan& h = s.hardware;
+    auto joint = [](const JointPlan& j) {
+      return std::string(to_string(j.kind)) + (j.chosen_automatically ? " (automatic)" : "");
+    };
+    n.push_back("Band ends: A " + joint(h.joint_a) + ", B " + joint(h.joint_b) +
+                "; frame plates " + dim_length(h.brackets.empty() ? 0 : h.brackets[0].thickness, u) +
+                " thick; sizes and checks on the calculation sheet.");
+  }
   if (s.hardware.release_ok) {
     n.push_back("Applied position shown; lever released (radial clearance " +
                 dim_length(d.band.clearance, u) + ") as a phantom line.");

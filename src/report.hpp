@@ -3,6 +3,7 @@
 #pragma once
 
 #include <string>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
@@ -17,5 +18,14 @@ std::string text_report(const Design& design, const Solution& solution, UnitSyst
 
 /// One JSON object, SI units, the unit as each key's suffix (README.md "JSON output").
 nlohmann::json json_report(const Design& design, const Solution& solution);
+
+/// The generated hardware (src/hardware.hpp) as a JSON object (the "hardware" key of
+/// `solve --json` and `build --json`); null for a design without pins.
+nlohmann::json hardware_json(const HardwarePlan& hardware);
+
+/// The generated hardware in a few readable lines: each band end's joint and whether it was
+/// chosen automatically, each frame bracket, where the lever sits. For `solve`, the `build`
+/// summary and the drawing's notes.
+std::vector<std::string> hardware_summary(const HardwarePlan& hardware, UnitSystem units);
 
 }  // namespace bandforge

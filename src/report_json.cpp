@@ -86,8 +86,10 @@ json joint_block(const JointPlan& jp) {
   return j;
 }
 
+}  // namespace
+
 // The generated hardware (src/hardware.hpp): what build makes, decided before any solid.
-json hardware_block(const HardwarePlan& h) {
+json hardware_json(const HardwarePlan& h) {
   if (!h.present) return nullptr;
   json brackets = json::array();
   for (const BracketPlan& b : h.brackets) {
@@ -126,10 +128,9 @@ json hardware_block(const HardwarePlan& h) {
                      {"pin_overhang_m", a.pin_overhang}}},
           {"brackets", brackets},
           {"pins", pins},
-          {"joints", {{"a", joint_block(h.joint_a)}, {"b", joint_block(h.joint_b)}}}};
+          {"joints", {{"a", joint_block(h.joint_a)}, {"b", joint_block(h.joint_b)}}},
+          {"release_ok", h.release_ok}};
 }
-
-}  // namespace
 
 nlohmann::json json_report(const Design& design, const Solution& s) {
   const Layout& L = s.layout;
@@ -187,7 +188,7 @@ nlohmann::json json_report(const Design& design, const Solution& s) {
   } else {
     j["thermal"] = nullptr;
   }
-  j["hardware"] = hardware_block(s.hardware);
+  j["hardware"] = hardware_json(s.hardware);
   json checks = json::array();
   for (const Check& c : s.checks) {
     checks.push_back({{"id", c.id},

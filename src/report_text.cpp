@@ -217,6 +217,39 @@ void checks(Out& o, const Solution& s) {
 
 }  // namespace
 
+std::vector<std::string> hardware_summary(const HardwarePlan& h, UnitSystem units) {
+  std::vector<std::string> out;
+  if (!h.present) return out;
+  auto len = [&](double v) { return format_quantity(v, Quantity::length, units); };
+  for (const JointPlan* j : {&h.joint_a, &h.joint_b}) {
+    std::string line = "end " + j->end + ": " + to_string(j->kind) + " (" +
+                       (j->chosen_automatically ? "chosen automatically" : "asked for in the design file") + "), ";
+    if (j->kind == JointKind::welded_block) {
+      line += "end block " + len(j->block_front + j->block_back) + " × " + len(j->block_height) +
+              ", band end in a slot " + len(j->slot_depth) + " deep, fillet welds leg " + len(j->weld_leg);
+    } else {
+      line += std::to_string(j->rows) + " rows × " + std::to_string(j->columns) + " rivets Ø" +
+              len(j->rivet) + ", lap " + len(j->lap);
+    }
+    line += "; takes " + len(j->needs) + " of the " + len(j->room) + " the run leaves";
+    out.push_back(line);
+  }
+  for (const BracketPlan& b : h.brackets) {
+    std::string held;
+    for (const std::string& p : b.pins) held += (held.empty() ? "" : ", ") + p;
+    out.push_back(b.name + ": " + (b.cheek ? "two plates (cheeks) " : "plate ") + len(b.thickness) + " thick, " +
+                  len(2 * b.half_width) + " wide, holds pin " + held + "; " +
+                  (b.side == BracketSide::front ? "in front of the lever"
+                   : b.behind_drum          ? "behind the drum face"
+                                            : "behind the band") +
+                  (b.cheek ? ", front cheek z " + len(b.cheek_z_back) + " to " + len(b.cheek_z_front) : ""));
+  }
+  if (h.axial.lever_outboard) out.push_back("lever moved in front of the drum face (z from " + len(h.axial.lever_back) + ")");
+  if (!h.release_ok) out.push_back("released state not built: " + h.release_problem);
+  if (!h.refusal.empty()) out.push_back("CANNOT BE BUILT: " + h.refusal);
+  return out;
+}
+
 std::string text_report(const Design& design, const Solution& solution, UnitSystem units) {
   Out o(units);
   o.line("bandforge — " + design.project.title +
@@ -229,6 +262,10 @@ std::string text_report(const Design& design, const Solution& solution, UnitSyst
   layout(o, solution);
   results(o, design, solution);
   thermal(o, solution);
+  if (solution.hardware.present) {
+    o.heading("Generated hardware (what build adds)");
+    for (const std::string& l : hardware_summary(solution.hardware, units)) o.line("  - " + l);
+  }
   checks(o, solution);
   int failed = 0;
   for (const Check& c : solution.checks) failed += c.ok ? 0 : 1;

@@ -21,6 +21,7 @@
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
+#include "src/report.hpp"
 #include "src/staging.hpp"
 #include "src/units.hpp"
 
@@ -64,8 +65,8 @@ std::string pad(std::string s, std::size_t width) {
   return s;
 }
 
-void print_text(const Design& design, const geom::BrakeModel& model, bool released,
-                const std::vector<std::string>& files) {
+void print_text(const Design& design, const Solution& solution, const geom::BrakeModel& model,
+                bool released, const std::vector<std::string>& files) {
   std::cout << "bandforge build: " << design.project.number << "  " << design.project.title
             << " (" << (released ? "released" : "applied") << " state)\n\n";
   std::cout << "Parts                 instances  volume [cm³]  mass [kg]  material\n";
@@ -77,7 +78,11 @@ void print_text(const Design& design, const geom::BrakeModel& model, bool releas
               << pad(fixed(p.volume / 1000.0, 1), 14) << pad(fixed(p.mass, 3), 11) << p.material
               << '\n';
   }
-  std::cout << "  " << pad("total", 45) << fixed(total, 3) << "\n\nChecks\n";
+  std::cout << "  " << pad("total", 45) << fixed(total, 3) << "\n\nGenerated hardware\n";
+  for (const std::string& l : hardware_summary(solution.hardware, UnitSystem::si)) {
+    std::cout << "  " << l << '\n';
+  }
+  std::cout << "\nChecks\n";
   std::cout << "  " << pad("every solid valid (BRepCheck_Analyzer)", 52)
             << (model.all_valid() ? "pass" : "FAIL") << '\n';
   for (const geom::ContactCheck& c : model.contacts()) {
@@ -93,8 +98,8 @@ void print_text(const Design& design, const geom::BrakeModel& model, bool releas
   for (const std::string& f : files) std::cout << "wrote " << f << '\n';
 }
 
-nlohmann::json to_json(const Design& design, const geom::BrakeModel& model, bool released,
-                       const std::vector<std::string>& files) {
+nlohmann::json to_json(const Design& design, const Solution& solution, const geom::BrakeModel& model,
+                       bool released, const std::vector<std::string>& files) {
   using nlohmann::json;
   json parts = json::array();
   for (const geom::PartInfo& p : model.parts()) {
@@ -131,6 +136,7 @@ nlohmann::json to_json(const Design& design, const geom::BrakeModel& model, bool
           {"ok", all_ok},
           {"parts", parts},
           {"contacts", contacts},
+          {"hardware", hardware_json(solution.hardware)},
           {"files", files}};
 }
 
@@ -213,9 +219,9 @@ void build_outputs(const BuildCommand& cmd) {
   geom::remove_stale_fab_files((fs::path(cmd.out_dir) / "fab").string(), fab);
 
   if (cmd.json) {
-    std::cout << to_json(design, model, cmd.released, files).dump(2) << '\n';
+    std::cout << to_json(design, solution, model, cmd.released, files).dump(2) << '\n';
   } else {
-    print_text(design, model, cmd.released, files);
+    print_text(design, solution, model, cmd.released, files);
   }
 }
 
