@@ -2,6 +2,7 @@
 // the JSON contract, and every example solved. Runs the real executable.
 #include <gtest/gtest.h>
 
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
@@ -265,6 +266,31 @@ TEST(BadInput, RunsThatCross) {
   // Sense reversed: end A (left) would run to a tangent point on the right and end B to the left.
   const auto p = example_with("sense = \"cw\"", "sense = \"ccw\"", "cross");
   expect_design_error(p, "band.", 0, "cross");
+}
+
+TEST(BadInput, BandEndsThatWouldOverlapRoundTheirPins) {
+  // Pins 20 mm apart; two eyes of pin radius 8 + band thickness 3 and the 1.5 mm clearance need
+  // 2·(8 + 3) + 1.5 = 23.5 mm: the band ends cannot pass through each other.
+  const auto p = example_with("at = [\"60 mm\", \"-300 mm\"]", "at = [\"-40 mm\", \"-300 mm\"]", "eyes");
+  expect_design_error(p, "band.end_b.at", line_of(p, "end_b ="), "at least 3.5 mm further from band.end_a.at");
+}
+
+TEST(BadInput, BandEndThatWouldCutTheOtherRun) {
+  // Pin B at (−100, −220), beside end A's run. That run, by hand (REFERENCE §1.8 step 2):
+  // A = (−60, −300), |A| = 305.94, r_b = 206.5, α = acos(r_b/|A|) = 47.55°, ψ = −101.31°,
+  // sense cw (s = −1): β_A = ψ − α = −148.86°, T_A = r_b·(cos β, sin β) = (−176.70, −106.83).
+  // Distance from B to the segment A–T_A: 7.137 mm; the eye (8 + 3), half the run's thickness
+  // (1.5) and the clearance (1.5) need 14 mm.
+  const double ax = -60, ay = -300, rb = 206.5, pi = 3.14159265358979323846;
+  const double d = std::hypot(ax, ay), beta = std::atan2(ay, ax) - std::acos(rb / d);
+  const double tx = rb * std::cos(beta), ty = rb * std::sin(beta), bx = -100, by = -220;
+  const double ux = tx - ax, uy = ty - ay, len2 = ux * ux + uy * uy;
+  const double k = ((bx - ax) * ux + (by - ay) * uy) / len2;
+  const double gap = std::hypot(bx - ax - k * ux, by - ay - k * uy);
+  ASSERT_NEAR(beta * 180 / pi, -148.86, 0.01);
+  ASSERT_NEAR(gap, 7.137, 0.001);
+  const auto p = example_with("at = [\"60 mm\", \"-300 mm\"]", "at = [\"-100 mm\", \"-220 mm\"]", "cut-run");
+  expect_design_error(p, "band.end_b.at", line_of(p, "end_b ="), "would cut the other end's straight run: it is 7.13");
 }
 
 TEST(BadInput, LeverThatDoesNotTightenTheBand) {
