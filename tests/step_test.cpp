@@ -160,6 +160,53 @@ TEST(StepExport, RereadGivesNamesInstancesColoursUnitsAndVolumes) {
                                    "PIN-PIVOT"}));
 }
 
+TEST(StepExport, GeneratedHardwareRereadsWithNamesAndVolumes) {
+  // A shared frame bracket (end A 30 mm from the pivot), and welded end blocks at both ends:
+  // every generated part comes back from the file under its name, with the built volume.
+  const std::pair<std::string, std::string> pivot{"pivot = [\"-110 mm\", \"-300 mm\"]",
+                                                  "pivot = [\"-90 mm\", \"-300 mm\"]"};
+  const std::pair<std::string, std::string> welded{"pin_diameter = ",
+                                                   "end_joint = \"welded-block\"\npin_diameter = "};
+  const std::vector<std::pair<std::pair<std::string, std::string>, std::vector<std::string>>> cases{
+      {pivot, {"BRACKET-A-PIVOT"}}, {welded, {"END-BLOCK-A", "END-BLOCK-B"}}};
+  for (const auto& [edit, expected] : cases) {
+    std::string text = slurp(kExample);
+    ASSERT_NE(text.find(edit.first), std::string::npos);
+    text.replace(text.find(edit.first), edit.first.size(), edit.second);
+    const Design d = read_design_text(text, "generated.toml");
+    const BrakeModel m = build_brake(d, solve(d), {});
+    const fs::path file = fresh_dir("generated-" + expected[0]) / "g.step";
+    write_step(m, d, file.string());
+    DocumentScope scope;
+    Handle(TDocStd_Document)& doc = scope.doc;
+    STEPCAFControl_Reader reader;
+    reader.SetNameMode(Standard_True);
+    ASSERT_EQ(reader.ReadFile(file.string().c_str()), IFSelect_RetDone);
+    ASSERT_TRUE(reader.Transfer(doc));
+    Handle(XCAFDoc_ShapeTool) shapes = XCAFDoc_DocumentTool::ShapeTool(doc->Main());
+    TDF_LabelSequence roots, comps;
+    shapes->GetFreeShapes(roots);
+    ASSERT_EQ(roots.Length(), 1);
+    shapes->GetComponents(roots(1), comps);
+    std::map<std::string, double> reread;  // instance name → volume of its product
+    for (int i = 1; i <= comps.Length(); ++i) {
+      TDF_Label part;
+      ASSERT_TRUE(shapes->GetReferredShape(comps(i), part));
+      reread[name_of(comps(i))] = volume(shapes->GetShape(part));
+    }
+    for (const std::string& name : expected) EXPECT_TRUE(reread.count(name)) << name;
+    std::size_t instances = 0;
+    for (const PartInfo& p : m.parts()) {
+      for (const std::string& in : p.instance_names) {
+        ++instances;
+        ASSERT_TRUE(reread.count(in)) << in;
+        EXPECT_NEAR(reread[in], p.volume, 1e-6 * p.volume) << in;
+      }
+    }
+    EXPECT_EQ(reread.size(), instances);
+  }
+}
+
 TEST(StepExport, FileTextCarriesHeaderSchemaUnitsAndExactColours) {
   const Written w = write_example("text");
   const std::string text = slurp(w.file);
