@@ -465,6 +465,41 @@ def check_welded_blocks(exe, design_path, work):
           "welded: band blank = centreline less the two slot ends")
 
 
+def check_compact_rivets(exe, design_path, work):
+    """The compact riveted lap (issue 12): the band blank's joint holes are the rivet diameter the
+    plan chose (solve --json), rows x columns in each tail and each run, besides the lining's."""
+    text = open(design_path, encoding="utf-8").read()
+    if "pin_diameter = " not in text:
+        return
+    compact = os.path.join(work, "compact.toml")
+    open(compact, "w", encoding="utf-8").write(
+        text.replace("pin_diameter = ", 'end_joint = "riveted-compact"\npin_diameter = ', 1))
+    out = os.path.join(work, "compact")
+    shutil.rmtree(out, ignore_errors=True)
+    run([exe, "build", compact, "-o", out])
+    solved = json.loads(run([exe, "solve", compact, "--json"]).stdout)
+    design = tomllib.loads(open(compact, encoding="utf-8").read())
+    _, holes, notes, _ = read_dxf(os.path.join(out, "fab", "band-blank.dxf"), "r2000")
+    joints = solved["hardware"]["joints"]
+    check(all(joints[e]["kind"] == "riveted-compact" for e in "ab"), "compact: both ends riveted-compact")
+    b, t_lining = mm(design["band"]["width"]), mm(design["lining"]["thickness"])
+    r = mm(design["drum"]["diameter"]) / 2
+    n_lining = lining_rule(t_lining, b, (r + t_lining / 2) * math.radians(solved["wrap_angle_deg"]))
+    for e in "ab":
+        rv = joints[e]["rivets"]
+        d = rv["diameter_m"] * 1000
+        n = sum(1 for h in holes if close(2 * h[2], d, 1e-9))
+        # Lining rivet holes are 5 mm: when the joint rivet is 5 mm too, count them with it.
+        expect = 2 * rv["rows"] * rv["columns"] * (2 if joints["a"]["rivets"]["diameter_m"] == joints["b"]["rivets"]["diameter_m"] else 1)
+        expect += n_lining if close(d, 5.0, 1e-9) else 0
+        check(n == expect, f"compact: {n} holes of dia {d} in the band blank, expected {expect}")
+        # EN 1993-1-8 Table 3.3 least spacings, as the plan states: edge 1.2 d, pitch 2.2 d.
+        check(close(rv["edge_m"], 1.2 * rv["diameter_m"], 1e-9) and close(rv["pitch_m"], 2.2 * rv["diameter_m"], 1e-9),
+              f"compact: end {e} spacing 1.2 d / 2.2 d")
+    check(len(holes) == n_lining + sum(2 * joints[e]["rivets"]["rows"] * joints[e]["rivets"]["columns"] for e in "ab"),
+          f"compact: {len(holes)} holes in all")
+
+
 def main():
     ap = argparse.ArgumentParser()
     ap.add_argument("--bandforge", required=True)
@@ -483,6 +518,7 @@ def main():
         check_refusal(a.bandforge, pin_designs[0], a.work)
         check_stale(a.bandforge, pin_designs[0], a.work)
         check_welded_blocks(a.bandforge, pin_designs[0], a.work)
+        check_compact_rivets(a.bandforge, pin_designs[0], a.work)
     print(f"{len(failures)} failure(s)")
     return 1 if failures else 0
 
