@@ -275,7 +275,7 @@ JointResult riveted_lap(const JointInput& in) {
 // EN 1993-1-8 Table 3.3 (end and edge 1.2 d0, pitch 2.2 d0 along, 2.4 d0 across; from memory),
 // the combination of diameter and columns that gives the shortest lap passing its checks.
 JointResult riveted_compact(const JointInput& in) {
-  std::optional<JointResult> best;
+  std::optional<JointResult> best, shortest;  // passing its checks / any, by lap
   const double d_min = std::max(0.005, in.t);
   for (double d : kRivetSeries) {
     if (d < d_min - 1e-12) continue;
@@ -305,11 +305,13 @@ JointResult riveted_compact(const JointInput& in) {
       riveted_checks(in, r);
       r.passes = std::all_of(r.checks.begin(), r.checks.end(), [](const Check& c) { return c.ok; });
       r.fits = j.needs <= j.room;
+      if (!shortest || j.needs < shortest->plan.needs - 1e-12) shortest = r;
       if (!r.passes) continue;
       if (!best || j.needs < best->plan.needs - 1e-12) best = r;
     }
   }
   if (best) return *best;
+  if (shortest) return *shortest;  // nothing passes: the shortest, its failing checks reported
   JointResult none;
   none.plan.kind = JointKind::riveted_compact;
   none.plan.end = in.end;
