@@ -3,6 +3,7 @@
 #pragma once
 
 #include <string>
+#include <utility>
 
 namespace bandforge {
 
@@ -18,5 +19,21 @@ struct Check {
   std::string source;       ///< where the limit comes from
   std::string note;         ///< which case governs (direction, friction)
 };
+
+/// A check with its verdict: ok when value ≤ limit (`upper`) or value ≥ limit.
+inline Check make_check(std::string id, std::string title, double value, double limit,
+                        std::string unit, bool upper, std::string source, std::string note) {
+  Check c;
+  c.id = std::move(id);
+  c.title = std::move(title);
+  c.value = value;
+  c.limit = limit;
+  c.unit = std::move(unit);
+  c.upper = upper;
+  c.ok = upper ? value <= limit : value >= limit;
+  c.source = std::move(source);
+  c.note = std::move(note);
+  return c;
+}
 
 }  // namespace bandforge

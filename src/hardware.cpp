@@ -193,20 +193,6 @@ struct JointResult {
   bool passes = false;
 };
 
-Check make_check(std::string id, std::string title, double value, double limit, std::string unit,
-                 std::string source, std::string note) {
-  Check c;
-  c.id = std::move(id);
-  c.title = std::move(title);
-  c.value = value;
-  c.limit = limit;
-  c.unit = std::move(unit);
-  c.upper = true;
-  c.ok = value <= limit * (1 + 1e-12);
-  c.source = std::move(source);
-  c.note = std::move(note);
-  return c;
-}
 
 // Net-section allowable of the band at a rivet row: the gross allowable of the textbook
 // examples allows for a joint efficiency of 0.6 or better (REFERENCE: typical riveted-end
@@ -225,17 +211,17 @@ void riveted_checks(const JointInput& in, JointResult& r) {
                            " Ø" + mm(j.rivet, 0) + " mm rivets, largest tension " +
                            std::to_string(static_cast<long>(std::lround(in.tension))) + " N";
   r.checks.push_back(make_check(id + "_rivet_shear", who + ": rivet shear τ = P/(n·πd²/4)",
-                                in.tension / (n * area), in.tau, "Pa",
+                                in.tension / (n * area), in.tau, "Pa", true,
                                 "the pin allowable shear (band.pin_allowable_shear; "
                                 "default allowable/√3, distortion-energy relation)",
                                 note));
   r.checks.push_back(make_check(id + "_rivet_bearing", who + ": rivet bearing on the band σ = P/(n·d·t)",
-                                in.tension / (n * j.rivet * in.t), kRivetBearingFactor * in.tau, "Pa",
+                                in.tension / (n * j.rivet * in.t), kRivetBearingFactor * in.tau, "Pa", true,
                                 "2 × rivet allowable shear (common practice, no source)", note));
   const double net = (in.b - j.columns * j.rivet) * in.t;
   r.checks.push_back(make_check(id + "_net_section",
                                 who + ": band net section at the first row σ = P/((b − n_c·d)·t)",
-                                net > 0 ? in.tension / net : 1e30, in.sigma / kJointEfficiency, "Pa",
+                                net > 0 ? in.tension / net : 1e30, in.sigma / kJointEfficiency, "Pa", true,
                                 "band allowable / 0.6: the gross allowable of textbook examples "
                                 "allows for a riveted-end efficiency of 0.6–0.85 (common practice, "
                                 "no source)",
@@ -360,18 +346,18 @@ JointResult welded_block(const JointInput& in, const Layout& L, bool a) {
                            std::to_string(static_cast<long>(std::lround(in.tension))) + " N";
   r.checks.push_back(make_check(id + "_weld_throat",
                                 who + ": fillet weld throat shear τ = P/(0.707·h·2b)",
-                                in.tension / (0.707 * j.weld_leg * 2 * in.b), kWeldShear, "Pa",
+                                in.tension / (0.707 * j.weld_leg * 2 * in.b), kWeldShear, "Pa", true,
                                 "0.30 S_ut, E70xx S_ut = 482 MPa (AISC, Shigley 9th ed. "
                                 "Tables 9-3 and 9-4; from memory); formula: Shigley 9th ed. §9-3",
                                 note));
   r.checks.push_back(make_check(id + "_block_bearing", who + ": bearing in the bore σ = P/(d·b)",
-                                in.tension / (d * in.b), kBearingFactor * fy, "Pa",
+                                in.tension / (d * in.b), kBearingFactor * fy, "Pa", true,
                                 std::string("0.90 F_y (AISC ASD 1989 J8.1, from memory); ") +
                                     kYieldSource,
                                 note));
   r.checks.push_back(make_check(id + "_block_net", who + ": net section at the bore σ = P/((H − d)·b)",
                                 in.tension / ((j.block_height - d) * in.b), kPinPlateTension * fy,
-                                "Pa",
+                                "Pa", true,
                                 std::string("0.45 F_y, pin-connected part (AISC ASD 1989 "
                                             "D3.1, from memory); ") + kYieldSource,
                                 note));
@@ -627,14 +613,12 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
       Check c = make_check("release_clearance",
                            "Released state: least clearance of the band ends (run left beyond the "
                            "eye or end block; distance to the other run)",
-                           least, 0, "m",
+                           least, 0, "m", false,
                            "geometry of the released state (lever turned back by the release "
                            "rotation, band on r_b + clearance); the eye or end block needs its own "
                            "length of straight run (common practice, no source)",
                            "at " + where + ", lever turned " +
                                std::to_string(std::lround(turn * 180 / pi)) + "°");
-      c.upper = false;
-      c.ok = least >= 0;
       plan.checks.push_back(c);
       if (!c.ok) {
         plan.release_ok = false;
@@ -862,6 +846,13 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
 
   // Thickness from the stock series (at least the lever's plate), the same for every bracket
   // (one plate stock), the least that passes every bore's checks.
+  auto bearing_check = [&](const std::string& pin, const std::string& title, double bearing,
+                           double fy, const std::string& note) {
+    plan.checks.push_back(make_check(
+        "bracket_bearing_" + pin, title, bearing, kBearingFactor * fy, "Pa", true,
+        std::string("0.90 F_y, pins in bored holes (AISC ASD 1989 J8.1, from memory); ") + kYieldSource,
+        note));
+  };
   auto size_brackets = [&](double thick, double hw, bool record) {
     bool ok = true;
     std::vector<BracketPlan> out;
@@ -922,14 +913,10 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
                                      " mm apart: " + std::to_string(static_cast<long>(std::lround(f_back))) +
                                      " N back, " + std::to_string(static_cast<long>(std::lround(f_front))) +
                                      " N front";
-            plan.checks.push_back(make_check(
-                "bracket_bearing_" + frame[i].id, who + ": bore bearing pressure p = F_cheek/(d·t)",
-                bearing, kBearingFactor * fy, "Pa",
-                std::string("0.90 F_y, pins in bored holes (AISC ASD 1989 J8.1, from memory); ") + kYieldSource,
-                note));
+            bearing_check(frame[i].id, who + ": bore bearing pressure p = F_cheek/(d·t)", bearing, fy, note);
             plan.checks.push_back(make_check(
                 "bracket_net_" + frame[i].id, who + ": cheek net section at the bore σ = F_cheek/((w − d)·t)",
-                tension, kPinPlateTension * fy, "Pa",
+                tension, kPinPlateTension * fy, "Pa", true,
                 std::string("0.45 F_y, pin-connected part (AISC ASD 1989 D3.1, from memory); ") + kYieldSource,
                 note));
           }
@@ -942,15 +929,11 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
             const std::string note = "worst load " + std::to_string(static_cast<long>(std::lround(F))) +
                                      " N on one " + mm(thick, 0) + " mm plate, load line " +
                                      mm(br.offsets.back()) + " mm from its mid-plane";
-            plan.checks.push_back(make_check(
-                "bracket_bearing_" + frame[i].id, who + ": bore bearing pressure p = F/(d·t)",
-                bearing, kBearingFactor * fy, "Pa",
-                std::string("0.90 F_y, pins in bored holes (AISC ASD 1989 J8.1, from memory); ") + kYieldSource,
-                note));
+            bearing_check(frame[i].id, who + ": bore bearing pressure p = F/(d·t)", bearing, fy, note);
             plan.checks.push_back(make_check(
                 "bracket_bending_" + frame[i].id,
                 who + ": plate bending at the bore σ = 6·F·e/((w − d)·t²), overhung pin",
-                bending, kBendingFactor * fy, "Pa",
+                bending, kBendingFactor * fy, "Pa", true,
                 std::string("0.60 F_y (AISC ASD 1989 F1, from memory); ") + kYieldSource +
                     "; formula: elementary beam bending (Shigley 9th ed. §3-10)",
                 note));

@@ -458,20 +458,6 @@ const DirectionResult& worst_case(const Solution& s, Scope scope, Field field) {
   return *worst;
 }
 
-Check make_check(std::string id, std::string title, double value, double limit, std::string unit,
-                 bool upper, std::string source, std::string note) {
-  Check c;
-  c.id = std::move(id);
-  c.title = std::move(title);
-  c.value = value;
-  c.limit = limit;
-  c.unit = std::move(unit);
-  c.upper = upper;
-  c.ok = upper ? value <= limit : value >= limit;
-  c.source = std::move(source);
-  c.note = std::move(note);
-  return c;
-}
 
 std::string or_default(const std::string& s, const char* fallback) {
   return s.empty() ? std::string(fallback) : s;

@@ -424,18 +424,24 @@ def check_stale(exe, design_path, work):
           f"rebuild without a lining left {files}")
 
 
+def with_end_joint(design_path, kind, work):
+    """The design with `[band] end_joint = kind`, written to WORK/<kind>.toml; and a fresh output
+    folder WORK/<kind>."""
+    text = open(design_path, encoding="utf-8").read()
+    check("pin_diameter = " in text, f"{design_path}: no pin_diameter line to put end_joint before")
+    path = os.path.join(work, kind + ".toml")
+    open(path, "w", encoding="utf-8").write(
+        text.replace("pin_diameter = ", f'end_joint = "{kind}"\npin_diameter = ', 1))
+    out = os.path.join(work, kind)
+    shutil.rmtree(out, ignore_errors=True)
+    return path, out
+
+
 def check_welded_blocks(exe, design_path, work):
     """Welded end blocks (issue 12): each has a DXF profile (closed outline, bore as a circle,
     1:1 mm) whose area times the band width is the block solid's volume, a cut-list row, and the
     band blank loses its eyes and laps: length = centreline - 2 x (bore wall + pin radius)."""
-    text = open(design_path, encoding="utf-8").read()
-    if "pin_diameter = " not in text:
-        return
-    welded = os.path.join(work, "welded.toml")
-    open(welded, "w", encoding="utf-8").write(
-        text.replace("pin_diameter = ", 'end_joint = "welded-block"\npin_diameter = ', 1))
-    out = os.path.join(work, "welded")
-    shutil.rmtree(out, ignore_errors=True)
+    welded, out = with_end_joint(design_path, "welded-block", work)
     built = json.loads(run([exe, "build", welded, "-o", out, "--json"]).stdout)
     solved = json.loads(run([exe, "solve", welded, "--json"]).stdout)
     parts = {p["name"]: p for p in built["parts"]}
@@ -468,14 +474,7 @@ def check_welded_blocks(exe, design_path, work):
 def check_compact_rivets(exe, design_path, work):
     """The compact riveted lap (issue 12): the band blank's joint holes are the rivet diameter the
     plan chose (solve --json), rows x columns in each tail and each run, besides the lining's."""
-    text = open(design_path, encoding="utf-8").read()
-    if "pin_diameter = " not in text:
-        return
-    compact = os.path.join(work, "compact.toml")
-    open(compact, "w", encoding="utf-8").write(
-        text.replace("pin_diameter = ", 'end_joint = "riveted-compact"\npin_diameter = ', 1))
-    out = os.path.join(work, "compact")
-    shutil.rmtree(out, ignore_errors=True)
+    compact, out = with_end_joint(design_path, "riveted-compact", work)
     run([exe, "build", compact, "-o", out])
     solved = json.loads(run([exe, "solve", compact, "--json"]).stdout)
     design = tomllib.loads(open(compact, encoding="utf-8").read())

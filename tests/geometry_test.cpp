@@ -260,11 +260,11 @@ TEST(Placement, RepeatedPinsAreInstancesOfOnePart) {
   //   pin A (frame): plate 20 + gap 4 + band 80 + 2 overhangs 4 = 108 mm;
   //   pin B (lever): band 80 + gap 4 + lever 12 + overhangs 4 = 100 mm;
   //   pivot: plate 20 + gap 4 + band 80 + gap 4 + lever 12 + gap 4 + front cheek 20 + 4 = 148 mm.
-  const PartInfo& b = part(x.model, "PIN-D16x100");
-  EXPECT_EQ(b.instance_names, std::vector<std::string>{"PIN-B"});
+  const PartInfo& pin_b = part(x.model, "PIN-D16x100");
+  EXPECT_EQ(pin_b.instance_names, std::vector<std::string>{"PIN-B"});
   EXPECT_EQ(part(x.model, "PIN-D16x108").instance_names, std::vector<std::string>{"PIN-A"});
   EXPECT_EQ(part(x.model, "PIN-D16x148").instance_names, std::vector<std::string>{"PIN-PIVOT"});
-  EXPECT_NEAR(b.volume, pi / 4 * d_pin * d_pin * 100, 1e-6 * b.volume);
+  EXPECT_NEAR(pin_b.volume, pi / 4 * d_pin * d_pin * 100, 1e-6 * pin_b.volume);
   // One lug shape for every frame pin: three instances of one part (the pivot has two cheeks).
   EXPECT_EQ(part(x.model, "ANCHOR").instance_names,
             (std::vector<std::string>{"ANCHOR-A", "ANCHOR-PIVOT", "ANCHOR-PIVOT-FRONT"}));
@@ -547,8 +547,8 @@ TEST(Hardware, SharedBracketBuildsWithNoInterference) {
                                          "beside.toml"));
   EXPECT_TRUE(x.model.all_valid());
   for (const ContactCheck& c : x.model.contacts()) EXPECT_TRUE(c.ok) << c.part_a << "/" << c.part_b;
-  const PartInfo& b = part(x.model, "BRACKET-A-PIVOT");
-  EXPECT_EQ(b.instance_names, std::vector<std::string>{"BRACKET-A-PIVOT"});
+  const PartInfo& bracket = part(x.model, "BRACKET-A-PIVOT");
+  EXPECT_EQ(bracket.instance_names, std::vector<std::string>{"BRACKET-A-PIVOT"});
   // The plate: the hull of the two bores and their lug ends grown by w/2, less two Ø16 holes,
   // times its thickness; its area by the shoelace formula on the hull offset (Steiner: area of
   // the hull + perimeter·r + π·r²).
@@ -581,7 +581,7 @@ TEST(Hardware, SharedBracketBuildsWithNoInterference) {
   }
   const double r = br.half_width * 1000, thick = br.thickness * 1000;
   const double plate = (area + perimeter * r + pi * r * r - 2 * pi * 8 * 8) * thick;
-  EXPECT_NEAR(b.volume, plate, 1e-6 * plate);
+  EXPECT_NEAR(bracket.volume, plate, 1e-6 * plate);
 }
 
 TEST(Hardware, WeldedEndBlocksAreBuiltWhereThePlanPutsThem) {

@@ -206,7 +206,9 @@ TEST(Joints, ShortRunGetsAShorterJointInsteadOfARefusal) {
   EXPECT_NE(j.kind, JointKind::riveted_lap);
   EXPECT_LE(j.needs, j.room);
   for (const Check& c : s.checks) {
-    if (c.id.rfind("joint_a_", 0) == 0) EXPECT_TRUE(c.ok) << c.id << " " << c.value << " " << c.limit;
+    if (c.id.rfind("joint_a_", 0) == 0) {
+      EXPECT_TRUE(c.ok) << c.id << " " << c.value << " " << c.limit;
+    }
   }
 }
 
