@@ -164,11 +164,9 @@ Footprint footprint(const Layout& L, double t, const std::array<double, 2>& end_
 }
 
 // Clearance between a disc (c, r) and the band (its arc annulus, runs and end fittings).
-double disc_to_band(Vec2 c, double r, const Footprint& f, int skip_end = -1) {
+double disc_to_band(Vec2 c, double r, const Footprint& f) {
   double d = std::hypot(c.x, c.y) - r - f.band_outer;
-  for (int i = 0; i < 2; ++i) {
-    if (i == skip_end) continue;
-    const auto& run = f.runs[i];
+  for (const auto& run : f.runs) {
     d = std::min(d, point_segment(c, run.from, run.to) - run.half - r);
     d = std::min(d, dist(c, run.to) - run.end_radius - r);
   }
@@ -536,15 +534,15 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
     return std::hypot(std::max(j.block_front, j.block_back), j.block_height / 2);
   };
   const std::array<double, 2> ends{end_radius(plan.joint_a), end_radius(plan.joint_b)};
-  const double riveted_eye_min = eye_outer;  // a riveted end needs its eye clear of the drum side
+  // A riveted end's eye needs a run longer than its own radius.
   for (bool a : {true, false}) {
     const EndLayout& e = a ? L.a : L.b;
     const JointPlan& j = a ? plan.joint_a : plan.joint_b;
-    if (j.kind != JointKind::welded_block && e.free_length <= riveted_eye_min) {
+    if (j.kind != JointKind::welded_block && e.free_length <= eye_outer) {
       refuse("cannot build the band: the run at " + end_key(a ? "A" : "B") + " is " +
-             mm(e.free_length) + " mm, the eye round the pin needs more than " + mm(riveted_eye_min) +
+             mm(e.free_length) + " mm, the eye round the pin needs more than " + mm(eye_outer) +
              " mm: move " + end_key(a ? "A" : "B") + " at least " +
-             mm(riveted_eye_min - e.free_length + 0.0001) + " mm further from the drum along its run");
+             mm(eye_outer - e.free_length + 0.0001) + " mm further from the drum along its run");
     }
   }
   {
