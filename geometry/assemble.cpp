@@ -157,10 +157,14 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   ax.pin_overhang = hw.axial.pin_overhang * mm_per_m;
   ax.lever_back = hw.axial.lever_back * mm_per_m;
   ax.lever_front = hw.axial.lever_front * mm_per_m;
-  ax.anchor_back = ax.band_back;
-  ax.anchor_front = ax.band_back;
+  // The deepest frame plate behind the band, for views and tests (the plan has each plate's own).
+  ax.anchor_back = ax.anchor_front = ax.band_back;
+  bool first = true;
   for (const BracketPlan& br : hw.brackets) {
-    ax.anchor_back = std::min(ax.anchor_back, br.z_back * mm_per_m);
+    if (br.side != BracketSide::behind) continue;
+    ax.anchor_back = first ? br.z_back * mm_per_m : std::min(ax.anchor_back, br.z_back * mm_per_m);
+    ax.anchor_front = first ? br.z_front * mm_per_m : std::max(ax.anchor_front, br.z_front * mm_per_m);
+    first = false;
   }
   ax.grip_front = hw.axial.grip_front * mm_per_m;
   const double w = design.drum.width * mm_per_m;
@@ -227,7 +231,6 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
 
   // Welded end blocks: part coordinates with the pin at the origin, the run along −x, the band
   // slot on the mid-plane y = 0; placed at the pin, turned to the run, across the band's width.
-  std::vector<std::pair<std::string, double>> block_parts;  // name → shape key
   for (bool a : {true, false}) {
     const JointPlan& j = a ? hw.joint_a : hw.joint_b;
     if (j.kind != JointKind::welded_block) continue;
@@ -248,7 +251,6 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     const double angle = std::atan2(e.run_dir.y, e.run_dir.x) + std::numbers::pi;
     b.instance(part, name, compose(translation(mm(e.pin), ax.band_back), rotation(angle)));
     touch(name, "BAND");
-    block_parts.emplace_back(name, 0.0);
   }
 
   // Lever: part coordinates with the pivot at the origin, plate centred on z = 0; placed at the

@@ -49,7 +49,6 @@ struct Plan {
   double wrap = 0;               // [rad]
   double run_a = 0, run_b = 0;   // free runs, pin centre to tangent point
   double centreline = 0;         // the solve's band length, pin centre to pin centre
-  double eye = 0;                // allowance per eye: (2π − 1)·ρ
   LiningRivets rivets;
   const JointPlan* joint[2] = {nullptr, nullptr};  // A, B (src/hardware.hpp)
 };
@@ -89,7 +88,6 @@ Plan plan(const Design& d, const Solution& s) {
   p.run_a = L.a.free_length * mm_per_m;
   p.run_b = L.b.free_length * mm_per_m;
   p.centreline = L.band_length * mm_per_m;
-  p.eye = (2 * pi - 1) * p.rho;
   p.joint[0] = &s.hardware.joint_a;
   p.joint[1] = &s.hardware.joint_b;
   // An eye is bent round the pin with inside radius = pin radius; cold-formed strip needs an

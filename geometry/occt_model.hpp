@@ -5,13 +5,13 @@
 // Coordinates [mm], the front view of the design file: x right, y up, drum centre at the origin,
 // drum axis = z toward the viewer (the front view looks along −z). Along z (AxialLayout below):
 //   - drum, band and lining are centred on z = 0, the band mid-plane;
-//   - the lever plate sits in front of the band (z > b/2) with an axial gap; when the drum is
-//     wider than the band, the lever lies inside the drum's axial extent, so a lever whose outline
-//     crosses the drum circle in the front view interferes with the drum (REFERENCE §1.9: the
-//     lever must clear the drum) and the build is rejected;
-//   - the frame anchors (one lug per frame-mounted pin, the pivot included) sit behind the band
-//     (z < −b/2) with the same gap;
-//   - pins run along z through the band eyes, the lever and the anchors.
+//   - the z positions of everything bandforge adds come from the hardware plan
+//     (src/hardware.hpp, Solution::hardware), never from here: the lever plate in front of the
+//     band, or in front of the drum's face when its outline crosses the drum in the front view;
+//   - the frame plates behind the band (behind the drum's face when they cross the drum), with a
+//     front cheek in front of the band or of the lever where one fits; a pivot whose pin cannot
+//     pass the band has its plate in front of the lever;
+//   - pins run along z through the band eyes (or welded end blocks), the lever and the plates.
 #pragma once
 
 #include <cstddef>
@@ -37,7 +37,7 @@ struct AxialLayout {
   double drum_back = 0, drum_front = 0;      ///< drum rim and hub faces (±w/2)
   double band_back = 0, band_front = 0;      ///< band and lining (±b/2)
   double lever_back = 0, lever_front = 0;    ///< lever plate
-  double anchor_back = 0, anchor_front = 0;  ///< frame anchor lugs
+  double anchor_back = 0, anchor_front = 0;  ///< extent of the frame plates behind the band
   double grip_front = 0;                     ///< front end of the handle grip
   double gap = 0;                            ///< axial gap between band and lever / anchors
   double pin_overhang = 0;                   ///< pin length beyond the outer plate at each end

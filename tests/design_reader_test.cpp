@@ -429,7 +429,8 @@ TEST(StarterDesign, CommentedAlternativesAreValid) {
   // Uncomment the optional lining overrides, the pin shear and model, and the scale.
   for (const char* key : {"# friction = ", "# friction_range = ", "# pressure_limit = ",
                           "# temperature_limit = ", "# power_limit = ",
-                          "# pin_allowable_shear = ", "# model = ", "# scale = "}) {
+                          "# pin_allowable_shear = ", "# model = ", "# end_joint = ",
+                          "# scale = "}) {
     const std::size_t at = s.find(key);
     ASSERT_NE(at, std::string::npos) << key;
     s.erase(at, 2);
@@ -438,11 +439,23 @@ TEST(StarterDesign, CommentedAlternativesAreValid) {
   ASSERT_NO_THROW(d = read_design_text(s, "new.toml"));
   EXPECT_EQ(d.lining.friction_source, "design file");
   EXPECT_EQ(d.band.model, TensionModel::thick);
+  EXPECT_EQ(d.band.end_joint, EndJointChoice::automatic);  // the starter's "auto"
   EXPECT_EQ(d.drawing.scale_den, 5);
 }
 
 // ---------------------------------------------------------------------------------------------
 // Mistakes (issue 2 §5, the reader's share). Each names key, line, value and what is valid.
+
+TEST(DesignMistakes, UnknownEndJoint) {
+  const std::string t = with(kBase, "pin_diameter = \"12 mm\"",
+                             "pin_diameter = \"12 mm\"\nend_joint = \"glued\"");
+  expect_mistake(t, "band.end_joint", line_of(t, "end_joint ="),
+                 {"\"glued\"", "\"auto\"", "\"riveted-lap\"", "\"riveted-compact\"", "\"welded-block\""});
+  const Design d = read_design_text(with(kBase, "pin_diameter = \"12 mm\"",
+                                         "pin_diameter = \"12 mm\"\nend_joint = \"welded-block\""),
+                                    "t.toml");
+  EXPECT_EQ(d.band.end_joint, EndJointChoice::welded_block);
+}
 
 TEST(DesignMistakes, TomlSyntaxError) {
   const std::string t = with(kBase, "width = \"60 mm\"", "width = \"60 mm");
