@@ -105,24 +105,6 @@ bool segments_cross(Vec2 p1, Vec2 p2, Vec2 q1, Vec2 q2) {
   return ((o1 > 0 && o2 < 0) || (o1 < 0 && o2 > 0)) && ((o3 > 0 && o4 < 0) || (o3 < 0 && o4 > 0));
 }
 
-void check_pin(const Design& d, const BandEnd& end, const char* key, double r_b) {
-  const double dist = norm(end.at);
-  if (!(dist > r_b)) {
-    design_fail(d, key, mm_point(end.at),
-                "the pin is at or inside the band line: it is " + mm(dist) +
-                    " from the drum centre, the band centreline radius r_b is " + mm(r_b) +
-                    "; put the pin outside r_b + pin_diameter/2 + band thickness + clearance = " +
-                    mm(r_b + d.band.pin_diameter / 2 + d.band.thickness + d.band.clearance));
-  }
-  const double need = d.band.pin_diameter / 2 + d.band.thickness + d.band.clearance;
-  if (dist - r_b < need) {
-    design_fail(d, key, mm_point(end.at),
-                "the pin is too close for the band loop: its centre is " + mm(dist - r_b) +
-                    " outside the band line (r_b = " + mm(r_b) +
-                    "), it needs at least pin_diameter/2 + band thickness + clearance = " + mm(need));
-  }
-}
-
 Layout concept_layout(const Design& d) {
   const Concept& c = d.concept_arms;
   Layout L;
@@ -169,9 +151,28 @@ Layout concept_layout(const Design& d) {
   return L;
 }
 
-Layout pin_layout(const Design& d) {
+// ---- the layout from the pins: one core, no throw, no allocation ----
+
+/// Least distance of a pin centre outside the band line: the eye round the pin and the clearance.
+double pin_room(const Design& d) { return d.band.pin_diameter / 2 + d.band.thickness + d.band.clearance; }
+
+/// Gap between the eye round `e.pin` and the other end's straight run, and what it needs.
+double eye_gap(const EndLayout& e, const EndLayout& other) {
+  const Vec2 ab = other.tangent_point - other.pin, ap = e.pin - other.pin;
+  const double len2 = ab.x * ab.x + ab.y * ab.y;
+  const double u = std::clamp((ap.x * ab.x + ap.y * ab.y) / len2, 0.0, 1.0);
+  return norm(ap - Vec2{u * ab.x, u * ab.y});
+}
+double eye_need(const Design& d) {
+  return d.band.pin_diameter / 2 + 1.5 * d.band.thickness + d.band.clearance;
+}
+double ends_need(const Design& d) {
+  return d.band.pin_diameter + 2 * d.band.thickness + d.band.clearance;
+}
+
+LayoutFault pin_layout_core(const Design& d, Layout& L) {
   const Band& band = d.band;
-  Layout L;
+  L = Layout{};
   L.from_pins = true;
   L.r = d.drum.diameter / 2;
   L.r_band = L.r + d.lining.thickness + band.thickness / 2;
@@ -179,86 +180,34 @@ Layout pin_layout(const Design& d) {
   const int s = L.sense;
   const Vec2 O = d.lever.pivot;
 
-  if (band.end_a.mount == Mount::frame && band.end_b.mount == Mount::frame) {
-    design_fail(d, "band.end_b.mount", "\"frame\"",
-                "both band ends are on the frame, so the lever cannot tighten the band; "
-                "put at least one end on the lever (mount = \"lever\")");
+  if (band.end_a.mount == Mount::frame && band.end_b.mount == Mount::frame) return LayoutFault::both_on_frame;
+  const double room = pin_room(d);
+  for (int i = 0; i < 2; ++i) {
+    const double dist = norm(i == 0 ? band.end_a.at : band.end_b.at);
+    if (!(dist > L.r_band)) return i == 0 ? LayoutFault::pin_a_inside : LayoutFault::pin_b_inside;
+    if (dist - L.r_band < room) return i == 0 ? LayoutFault::pin_a_close : LayoutFault::pin_b_close;
   }
-  check_pin(d, band.end_a, "band.end_a.at", L.r_band);
-  check_pin(d, band.end_b, "band.end_b.at", L.r_band);
 
   const TangentAngles beta = tangent_angles(band.end_a.at, band.end_b.at, L.r_band, s);
   L.wrap = wrap_of(beta, s);
-  if (L.wrap < kMinWrap || L.wrap > kMaxWrap) {
-    const Turn other = band.sense == Turn::ccw ? Turn::cw : Turn::ccw;
-    const double other_wrap =
-        wrap_of(tangent_angles(band.end_a.at, band.end_b.at, L.r_band, -s), -s);
-    if (other_wrap >= kMinWrap && other_wrap <= kMaxWrap) {
-      design_fail(d, "band.sense", quoted(band.sense),
-                  "with these pins the band would wrap " + degrees(L.wrap) +
-                      " (it must be between 5° and 355°); sense = " + quoted(other) +
-                      " gives a wrap of " + degrees(other_wrap));
-    }
-    design_fail(d, "band.end_b.at", mm_point(band.end_b.at),
-                "the pins give a wrap of " + degrees(L.wrap) + " (sense " + quoted(band.sense) +
-                    ") or " + degrees(other_wrap) + " (sense " + quoted(other) +
-                    "); move the pins so that the band wraps between 5° and 355°");
-  }
+  if (L.wrap < kMinWrap || L.wrap > kMaxWrap) return LayoutFault::wrap_range;
 
   L.a = end_layout(band.end_a, beta.a, L.r_band, O);
   L.b = end_layout(band.end_b, beta.b, L.r_band, O);
   L.band_length = L.a.free_length + L.b.free_length + L.r_band * L.wrap;
 
-  if (segments_cross(L.a.pin, L.a.tangent_point, L.b.tangent_point, L.b.pin)) {
-    design_fail(d, "band.end_b.at", mm_point(band.end_b.at),
-                "the two straight band runs cross each other; move the pins so that each run "
-                "reaches the drum without crossing the other");
-  }
-
+  if (segments_cross(L.a.pin, L.a.tangent_point, L.b.tangent_point, L.b.pin)) return LayoutFault::runs_cross;
   // An eye (pin radius + band thickness) may not cut through the other end's straight run.
-  for (int i = 0; i < 2; ++i) {
-    const EndLayout& e = i == 0 ? L.a : L.b;
-    const EndLayout& other = i == 0 ? L.b : L.a;
-    const Vec2 ab = other.tangent_point - other.pin, ap = e.pin - other.pin;
-    const double len2 = ab.x * ab.x + ab.y * ab.y;
-    const double u = std::clamp((ap.x * ab.x + ap.y * ab.y) / len2, 0.0, 1.0);
-    const double gap = norm(ap - Vec2{u * ab.x, u * ab.y});
-    const double need = d.band.pin_diameter / 2 + 1.5 * d.band.thickness + d.band.clearance;
-    if (gap < need) {
-      const char* key = i == 0 ? "band.end_a.at" : "band.end_b.at";
-      design_fail(d, key, mm_point(e.pin),
-                  "the band end round this pin would cut the other end's straight run: it is " +
-                      mm(gap) + " from that run, the eye and the clearance need " + mm(need) +
-                      "; move " + key + " at least " + mm(need - gap) + " away from that run");
-    }
-  }
-  // The two band ends each wrap round their pin (pin radius + band thickness): they cannot
-  // pass through each other.
-  {
-    const double apart = norm(band.end_a.at - band.end_b.at);
-    const double need = d.band.pin_diameter + 2 * d.band.thickness + d.band.clearance;
-    if (apart < need) {
-      design_fail(d, "band.end_b.at", mm_point(band.end_b.at),
-                  "the band ends round the two pins would overlap: the pins are " + mm(apart) +
-                      " apart, two eyes (pin_diameter/2 + band thickness each) and the clearance "
-                      "need at least " + mm(need) + "; move band.end_b.at at least " +
-                      mm(need - apart) + " further from band.end_a.at");
-    }
-  }
+  if (eye_gap(L.a, L.b) < eye_need(d)) return LayoutFault::eye_a_cuts_run;
+  if (eye_gap(L.b, L.a) < eye_need(d)) return LayoutFault::eye_b_cuts_run;
+  // The two band ends each wrap round their pin: they cannot pass through each other.
+  if (norm(band.end_a.at - band.end_b.at) < ends_need(d)) return LayoutFault::ends_overlap;
 
   const double net = L.a.arm + L.b.arm;
-  if (std::abs(net) < 1e-6 * L.r) {
-    design_fail(d, "lever.pivot", mm_point(O),
-                "the lever does not tighten the band: the band-end moments about the pivot "
-                "cancel (net arm " + mm(net) + "); move the pivot or a lever pin off that line");
-  }
+  if (std::abs(net) < 1e-6 * L.r) return LayoutFault::zero_net_arm;
   const Vec2 arm_h = d.lever.handle - O;
   L.handle_arm = norm(arm_h);
-  if (L.handle_arm < 1e-6) {
-    design_fail(d, "lever.handle", mm_point(d.lever.handle),
-                "the handle is at the pivot: the operator's force has no arm; put the handle "
-                "away from lever.pivot " + mm_point(O));
-  }
+  if (L.handle_arm < 1e-6) return LayoutFault::handle_at_pivot;
 
   // Path length falls by δψ·(m_A + m_B) for a CCW lever turn δψ (§1.8 step 8).
   L.apply_sense = net > 0 ? -1 : 1;
@@ -280,6 +229,97 @@ Layout pin_layout(const Design& d) {
   // Taking up a uniform radial clearance c shortens the path by about φ·c (§1.10).
   L.release_rotation = L.wrap * band.clearance / std::abs(net);
   L.handle_travel = L.handle_arm * L.release_rotation;
+  return LayoutFault::none;
+}
+
+/// The message for a fault of pin_layout_core: names the key, the value and what would do.
+[[noreturn]] void explain(const Design& d, const Layout& L, LayoutFault fault) {
+  const Band& band = d.band;
+  const auto pin_fault = [&](const BandEnd& end, const char* key, bool inside) {
+    const double dist = norm(end.at);
+    if (inside) {
+      design_fail(d, key, mm_point(end.at),
+                  "the pin is at or inside the band line: it is " + mm(dist) +
+                      " from the drum centre, the band centreline radius r_b is " + mm(L.r_band) +
+                      "; put the pin outside r_b + pin_diameter/2 + band thickness + clearance = " +
+                      mm(L.r_band + pin_room(d)));
+    }
+    design_fail(d, key, mm_point(end.at),
+                "the pin is too close for the band loop: its centre is " + mm(dist - L.r_band) +
+                    " outside the band line (r_b = " + mm(L.r_band) +
+                    "), it needs at least pin_diameter/2 + band thickness + clearance = " + mm(pin_room(d)));
+  };
+  const auto eye_fault = [&](const EndLayout& e, const EndLayout& other, const char* key) {
+    const double gap = eye_gap(e, other), need = eye_need(d);
+    design_fail(d, key, mm_point(e.pin),
+                "the band end round this pin would cut the other end's straight run: it is " +
+                    mm(gap) + " from that run, the eye and the clearance need " + mm(need) +
+                    "; move " + key + " at least " + mm(need - gap) + " away from that run");
+  };
+  switch (fault) {
+    case LayoutFault::none:
+      break;
+    case LayoutFault::both_on_frame:
+      design_fail(d, "band.end_b.mount", "\"frame\"",
+                  "both band ends are on the frame, so the lever cannot tighten the band; "
+                  "put at least one end on the lever (mount = \"lever\")");
+    case LayoutFault::pin_a_inside: pin_fault(band.end_a, "band.end_a.at", true);
+      break;
+    case LayoutFault::pin_b_inside: pin_fault(band.end_b, "band.end_b.at", true);
+      break;
+    case LayoutFault::pin_a_close: pin_fault(band.end_a, "band.end_a.at", false);
+      break;
+    case LayoutFault::pin_b_close: pin_fault(band.end_b, "band.end_b.at", false);
+      break;
+    case LayoutFault::wrap_range: {
+      const Turn other = band.sense == Turn::ccw ? Turn::cw : Turn::ccw;
+      const int s = turn_sign(band.sense);
+      const double other_wrap =
+          wrap_of(tangent_angles(band.end_a.at, band.end_b.at, L.r_band, -s), -s);
+      if (other_wrap >= kMinWrap && other_wrap <= kMaxWrap) {
+        design_fail(d, "band.sense", quoted(band.sense),
+                    "with these pins the band would wrap " + degrees(L.wrap) +
+                        " (it must be between 5° and 355°); sense = " + quoted(other) +
+                        " gives a wrap of " + degrees(other_wrap));
+      }
+      design_fail(d, "band.end_b.at", mm_point(band.end_b.at),
+                  "the pins give a wrap of " + degrees(L.wrap) + " (sense " + quoted(band.sense) +
+                      ") or " + degrees(other_wrap) + " (sense " + quoted(other) +
+                      "); move the pins so that the band wraps between 5° and 355°");
+    }
+    case LayoutFault::runs_cross:
+      design_fail(d, "band.end_b.at", mm_point(band.end_b.at),
+                  "the two straight band runs cross each other; move the pins so that each run "
+                  "reaches the drum without crossing the other");
+    case LayoutFault::eye_a_cuts_run: eye_fault(L.a, L.b, "band.end_a.at");
+      break;
+    case LayoutFault::eye_b_cuts_run: eye_fault(L.b, L.a, "band.end_b.at");
+      break;
+    case LayoutFault::ends_overlap: {
+      const double apart = norm(band.end_a.at - band.end_b.at), need = ends_need(d);
+      design_fail(d, "band.end_b.at", mm_point(band.end_b.at),
+                  "the band ends round the two pins would overlap: the pins are " + mm(apart) +
+                      " apart, two eyes (pin_diameter/2 + band thickness each) and the clearance "
+                      "need at least " + mm(need) + "; move band.end_b.at at least " +
+                      mm(need - apart) + " further from band.end_a.at");
+    }
+    case LayoutFault::zero_net_arm:
+      design_fail(d, "lever.pivot", mm_point(d.lever.pivot),
+                  "the lever does not tighten the band: the band-end moments about the pivot "
+                  "cancel (net arm " + mm(L.a.arm + L.b.arm) +
+                  "); move the pivot or a lever pin off that line");
+    case LayoutFault::handle_at_pivot:
+      design_fail(d, "lever.handle", mm_point(d.lever.handle),
+                  "the handle is at the pivot: the operator's force has no arm; put the handle "
+                  "away from lever.pivot " + mm_point(d.lever.pivot));
+  }
+  design_fail(d, "band", "", "internal: unexplained layout fault");
+}
+
+Layout pin_layout(const Design& d) {
+  Layout L;
+  const LayoutFault fault = pin_layout_core(d, L);
+  if (fault != LayoutFault::none) explain(d, L, fault);
   return L;
 }
 
@@ -640,6 +680,10 @@ void add_warnings(const Design& d, Solution& s) {
 
 Layout solve_layout(const Design& design) {
   return design.concept_arms.present ? concept_layout(design) : pin_layout(design);
+}
+
+LayoutFault try_pin_layout(const Design& design, Layout& layout) {
+  return pin_layout_core(design, layout);
 }
 
 DirectionResult solve_direction(const Design& design, const Layout& layout, bool a_tight,

@@ -111,6 +111,16 @@ struct Solution {
 /// zero net arm, handle at the pivot, both ends on the frame).
 Layout solve_layout(const Design& design);
 
+/// Why a pin layout is impossible (solve_layout's refusals, without the message).
+enum class LayoutFault {
+  none, both_on_frame, pin_a_inside, pin_b_inside, pin_a_close, pin_b_close, wrap_range,
+  runs_cross, eye_a_cuts_run, eye_b_cuts_run, ends_overlap, zero_net_arm, handle_at_pivot
+};
+
+/// solve_layout for a design with pins, for a search: the same rules, but the verdict is
+/// returned instead of thrown, and nothing is allocated (`layout` is valid when none).
+LayoutFault try_pin_layout(const Design& design, Layout& layout);
+
 /// Forces for one direction at one friction value, given the layout and what [load] fixes.
 DirectionResult solve_direction(const Design& design, const Layout& layout, bool a_tight,
                                 double friction);
