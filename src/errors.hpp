@@ -16,6 +16,7 @@ enum class Exit : int {
   io = 4,            ///< an input cannot be read or an output cannot be written
   internal = 5,      ///< a defect in bandforge: please report it
   checks_failed = 6, ///< with --strict: the design solved but at least one check fails
+  no_proposal = 7,   ///< propose: no layout in the brief's space passes every check and builds
 };
 
 class Error : public std::runtime_error {

@@ -12,6 +12,7 @@
 #include <iostream>
 #include <memory>
 #include <optional>
+#include <sstream>
 #include <string>
 #include <vector>
 
@@ -237,6 +238,34 @@ void run_build(const BuildCommand& cmd) {
   }
 }
 
+}  // namespace
+
+void build_design(const std::string& design, const std::string& out_dir, bool print) {
+  BuildCommand cmd;
+  cmd.design = design;
+  cmd.out_dir = out_dir;
+  if (print) {
+    run_build(cmd);
+    return;
+  }
+  // Quiet: the report goes nowhere, errors still throw.
+  std::ostringstream sink;
+  std::streambuf* old = std::cout.rdbuf(sink.rdbuf());
+  try {
+    run_build(cmd);
+  } catch (...) {
+    std::cout.rdbuf(old);
+    throw;
+  }
+  std::cout.rdbuf(old);
+}
+
+void hand_over(const std::string& command) {
+  throw Error(Exit::internal, command + ": bandforge-cad does not hand over");
+}
+
+namespace {
+
 #elif defined(BANDFORGE_CAD_EXECUTABLE)
 
 // OpenCASCADE's ~60 shared libraries take about 40 ms to load, three times a whole `solve`.
@@ -254,25 +283,37 @@ fs::path cad_executable() {
   for (const fs::path& p : candidates) {
     if (::access(p.c_str(), X_OK) == 0) return p;
   }
-  throw Error(Exit::internal, "build: cannot find " + candidates[0].string() + " or " +
+  throw Error(Exit::internal, "cannot find " + candidates[0].string() + " or " +
                                   candidates[1].lexically_normal().string() +
                                   " (bandforge-cad is built beside bandforge and installed in "
                                   "libexec/bandforge/)");
 }
 
-void run_build(const BuildCommand&) {
+}  // namespace
+
+void hand_over(const std::string& command) {
   const fs::path cad = cad_executable();
   std::fflush(nullptr);
   ::execv(cad.c_str(), original_argv());
-  throw Error(Exit::internal, "build: cannot start " + cad.string() + ": " + std::strerror(errno));
+  throw Error(Exit::internal, command + ": cannot start " + cad.string() + ": " + std::strerror(errno));
 }
+
+namespace {
+
+void run_build(const BuildCommand&) { hand_over("build"); }
 
 #else
 
-void run_build(const BuildCommand&) {
+}  // namespace
+
+void hand_over(const std::string& command) {
   throw Error(Exit::cannot_build,
-              "build: this bandforge was compiled without OpenCASCADE (BANDFORGE_GEOMETRY=OFF)");
+              command + ": this bandforge was compiled without OpenCASCADE (BANDFORGE_GEOMETRY=OFF)");
 }
+
+namespace {
+
+void run_build(const BuildCommand&) { hand_over("build"); }
 
 #endif
 

@@ -5,6 +5,8 @@
 
 #include <CLI/CLI.hpp>
 
+#include <string>
+
 namespace bandforge::cli {
 
 /// The command line as given to main(), kept for handing `build` to bandforge-cad.
@@ -15,5 +17,15 @@ void setup_solve(CLI::App& app);
 void setup_new(CLI::App& app);
 void setup_materials(CLI::App& app);
 void setup_build(CLI::App& app);
+void setup_propose(CLI::App& app);
+
+/// Replaces this process by bandforge-cad with the same arguments (the commands that need
+/// OpenCASCADE or libharu); throws when it cannot be found or started.
+[[noreturn]] void hand_over(const std::string& command);
+
+#ifdef BANDFORGE_HAVE_GEOMETRY
+/// `build DESIGN -o OUT_DIR` in this process; `print`: its report on stdout.
+void build_design(const std::string& design, const std::string& out_dir, bool print);
+#endif
 
 }  // namespace bandforge::cli

@@ -28,6 +28,7 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   bandforge::cli::setup_solve(app);
   bandforge::cli::setup_build(app);
+  bandforge::cli::setup_propose(app);
   bandforge::cli::setup_new(app);
   bandforge::cli::setup_materials(app);
   try {
