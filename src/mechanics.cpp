@@ -23,10 +23,10 @@ constexpr double kMaxWrap = 355.0 * kDeg;
 /// Relative tolerance of the self-locking test (REFERENCE §1.8 implementation notes).
 constexpr double kLockEps = 1e-9;
 /// Hand-lever force: ≤ 350 N occasional, 150–250 N regular (REFERENCE §3, common practice).
-constexpr double kHandForceLimit = 350.0;
-constexpr double kHandForceRegular = 250.0;
+constexpr double kHandForceLimit = check_limits::hand_force;
+constexpr double kHandForceRegular = check_limits::hand_force_regular;
 /// a_s ≥ 1.2·a_t·e^(f_max·φ) for a controllable differential brake (REFERENCE §1.7, common practice).
-constexpr double kSelfLockMargin = 1.2;
+constexpr double kSelfLockMargin = check_limits::self_lock_margin;
 
 Vec2 operator+(Vec2 a, Vec2 b) { return {a.x + b.x, a.y + b.y}; }
 Vec2 operator-(Vec2 a, Vec2 b) { return {a.x - b.x, a.y - b.y}; }
@@ -599,6 +599,14 @@ void add_checks(const Design& d, Solution& s) {
         as / (at * r.capstan_ratio), kSelfLockMargin, "1", false,
         "common practice, no source: a_s ≥ 1.2…1.5 × a_t·e^(f_max·φ) for a controllable differential brake",
         case_note(L, r)));
+  }
+  if (L.from_pins) {
+    s.checks.push_back(make_check(
+        "release_rotation", "Lever rotation to take up the release clearance", L.release_rotation,
+        check_limits::release_rotation, "rad", true,
+        "common practice, no source: the layout is solved in the applied position; a lever that "
+        "turns more than about 10° to release barely tightens the band (small net arm)",
+        "δψ = φ·c/|m_A + m_B|"));
   }
   const Thermal& th = s.thermal;
   if (th.present && d.duty.hoist_mass > 0) {

@@ -13,6 +13,17 @@
 
 namespace bandforge {
 
+/// Limits every design is checked against (common practice, no source; README "Checks").
+namespace check_limits {
+inline constexpr double hand_force = 350.0;         ///< operator force, occasional use [N] (REFERENCE §3)
+inline constexpr double hand_force_regular = 250.0; ///< regular use [N] (REFERENCE §3)
+inline constexpr double self_lock_margin = 1.2;     ///< differential: a_s ≥ 1.2·a_t·e^(f_max·φ) (§1.7)
+/// Lever rotation to take up the release clearance: the layout is solved in the applied
+/// position; a lever that must turn more than this barely tightens the band (a tiny net arm)
+/// and its released position is far from the one analysed [rad] (10°).
+inline constexpr double release_rotation = 10.0 * 3.14159265358979323846 / 180.0;
+}  // namespace check_limits
+
 /// One band end as laid out in the front view (REFERENCE §1.8 steps 2–5).
 struct EndLayout {
   Mount mount = Mount::frame;

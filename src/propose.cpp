@@ -23,9 +23,9 @@ namespace bandforge {
 namespace {
 
 constexpr double kPi = std::numbers::pi;
-/// solve()'s own limits (src/mechanics.cpp): every proposal must pass them too.
-constexpr double kHandForceCheck = 350.0;   // N, common practice (REFERENCE §3)
-constexpr double kSelfLockCheck = 1.2;      // a_s ≥ 1.2·a_t·e^(f_max·φ), common practice
+/// solve()'s own limits (src/mechanics.hpp): every proposal must pass them too.
+constexpr double kHandForceCheck = check_limits::hand_force;
+constexpr double kSelfLockCheck = check_limits::self_lock_margin;
 /// The hardware's rules (src/hardware.cpp) applied in the inner loop as a fast 2-D screen.
 double min_wall(double pin_r) { return std::max(0.002, 0.5 * pin_r); }
 /// Proposals are written with positions on this grid when it keeps them feasible [m].
@@ -147,9 +147,9 @@ struct Params {
 };
 
 /// The limits a candidate is judged by, in a fixed order (also the infeasible message's).
-enum Limit { kForce, kTravel, kPressure, kBandStress, kPinShear, kLever, kSelfLock, kDiffLock, kLimits };
-const char* const kLimitNames[kLimits] = {"operator force", "handle travel", "lining pressure",
-                                          "band stress", "pin shear", "lever bending",
+enum Limit { kForce, kTravel, kRotation, kPressure, kBandStress, kPinShear, kLever, kSelfLock, kDiffLock, kLimits };
+const char* const kLimitNames[kLimits] = {"operator force", "handle travel", "lever release rotation",
+                                          "lining pressure", "band stress", "pin shear", "lever bending",
                                           "self-locking friction", "differential self-lock ratio"};
 
 struct Eval {
@@ -316,6 +316,7 @@ class Search {
     };
     set(kForce, fig.force, std::min(b_.max_force, kHandForceCheck), true);
     set(kTravel, fig.travel, b_.max_travel > 0 ? b_.max_travel : 1e300, true);
+    set(kRotation, L.release_rotation, check_limits::release_rotation, true);
     set(kPressure, fig.pressure, b_.lining.pressure_limit > 0 ? b_.lining.pressure_limit : 1e300, true);
     set(kBandStress, fig.band_stress, d.band.allowable_stress, true);
     set(kPinShear, fig.pin_shear, d.band.pin_allowable_shear, true);
@@ -730,6 +731,11 @@ std::string relax_hint(const Search& s, const Found& f) {
       return "the best needs " + mm_text(value) + " of handle travel against max_travel " +
              mm_text(limit) + "; a larger max_travel, a smaller [limits] clearance, or a larger "
              "operator force (a shorter lever) would relax it";
+    case kRotation:
+      return "the best needs the lever to turn " + fmt("%.1f°", value * 180 / kPi) + " to take up the "
+             "clearance, more than the " + fmt("%.0f°", limit * 180 / kPi) + " solve checks (the band-end "
+             "arms about the pivot nearly cancel); a pins region that lets the lever pin sit further "
+             "from the pivot, or a smaller [limits] clearance would relax it";
     case kPressure:
       return "the best reaches " + fmt("%.3g MPa", value / 1e6) + " lining pressure against " +
              fmt("%.3g MPa", limit / 1e6) + "; a band wider than the widest in [stock] band_width "
