@@ -162,6 +162,7 @@ struct Eval {
   double value[kLimits] = {};
   double limit[kLimits] = {};
   bool upper[kLimits] = {};
+  double excess[kLimits] = {};  ///< relative excess over each limit (≤ 0: met)
   double violation = 0;     ///< largest relative excess over a limit (≤ 0: all met)
   int binding = -1;
 };
@@ -339,6 +340,7 @@ class Search {
       } else {
         v = e.limit[i] <= 0 ? -1.0 : (e.value[i] > 0 ? e.limit[i] / e.value[i] - 1.0 : 1e9);
       }
+      e.excess[i] = v;
       if (v > e.violation) {
         e.violation = v;
         e.binding = i;
@@ -527,8 +529,9 @@ struct ChunkResult {
   std::vector<CloudPoint> cloud;
   long long layouts = 0, handles = 0, feasible = 0;
   bool any_geometry = false;
-  Found least_violation;   ///< geometrically possible, least relative excess over a limit
-  bool has_least = false;
+  /// For each limit, the candidate that meets every other limit and misses this one least.
+  Found missing_one[kLimits];
+  bool has_missing[kLimits] = {};
 };
 
 struct Samples {
@@ -598,9 +601,14 @@ ChunkResult run_chunk(const Search& s, const Samples& sm, const Chunk& c, std::s
       ++out.feasible;
       out.cloud.push_back({e.fig.force, e.fig.band_mass});
       lists[static_cast<int>(e.kind)].offer({p, e, s.key_of(e)});
-    } else if (!out.has_least || e.violation < out.least_violation.e.violation) {
-      out.least_violation = {p, e, s.key_of(e)};
-      out.has_least = true;
+    } else {
+      int missed = 0;
+      for (int i = 0; i < kLimits; ++i) missed += e.excess[i] > 1e-12 ? 1 : 0;
+      const int i = e.binding;
+      if (missed == 1 && (!out.has_missing[i] || e.violation < out.missing_one[i].e.violation)) {
+        out.missing_one[i] = {p, e, s.key_of(e)};
+        out.has_missing[i] = true;
+      }
     }
   };
 
@@ -720,11 +728,17 @@ std::string relax_hint(const Search& s, const Found& f) {
     case kForce: {
       const double arm = dist(f.p.handle, f.p.pivot);
       const double need = arm * value / limit;
+      // The same moment over a longer arm: the travel grows in proportion.
+      const double travel = f.e.fig.travel * need / arm;
+      const std::string travel_note =
+          b.max_travel > 0 && travel > b.max_travel
+              ? " (its handle travel would be " + mm_text(travel) + ", so max_travel must grow too)"
+              : "";
       return "the best needs " + fmt("%.0f N", value) + " against " + fmt("%.0f N", limit) +
              " with a " + mm_text(arm) + " lever arm; a handle region reaching " + mm_text(need) +
-             " from the pivot at [" + mm_text(f.p.pivot.x) + ", " + mm_text(f.p.pivot.y) +
-             "], a larger [operator] max_force, or a lower [load] torque or service_factor would "
-             "relax it" + (std::find(b.kinds.begin(), b.kinds.end(), BrakeKind::differential) == b.kinds.end()
+             " from the pivot at [" + mm_text(f.p.pivot.x) + ", " + mm_text(f.p.pivot.y) + "]" +
+             travel_note + ", a larger [operator] max_force, or a lower [load] torque or service_factor "
+             "would relax it" + (std::find(b.kinds.begin(), b.kinds.end(), BrakeKind::differential) == b.kinds.end()
                                ? "; a differential layout ([goal] kinds) needs less force" : "");
     }
     case kTravel:
@@ -828,7 +842,7 @@ ProposeResult propose(const Brief& brief, int threads, const ProgressFn& progres
   // Merge in chunk order (deterministic whatever the threads did).
   Shortlist merged[3] = {Shortlist(s, keep), Shortlist(s, keep), Shortlist(s, keep)};
   bool any_geometry = false;
-  const Found* least = nullptr;
+  const Found* missing_one[kLimits] = {};
   for (const ChunkResult& r : results) {
     result.stats.layouts += r.layouts;
     result.stats.handles += r.handles;
@@ -836,8 +850,10 @@ ProposeResult propose(const Brief& brief, int threads, const ProgressFn& progres
     any_geometry = any_geometry || r.any_geometry;
     for (const Found& f : r.shortlist) merged[static_cast<int>(f.e.kind)].offer(f);
     result.cloud.insert(result.cloud.end(), r.cloud.begin(), r.cloud.end());
-    if (r.has_least && (least == nullptr || r.least_violation.e.violation < least->e.violation)) {
-      least = &r.least_violation;
+    for (int i = 0; i < kLimits; ++i) {
+      if (r.has_missing[i] && (missing_one[i] == nullptr || r.missing_one[i].e.violation < missing_one[i]->e.violation)) {
+        missing_one[i] = &r.missing_one[i];
+      }
     }
   }
   // A deterministic subsample for the plot.
@@ -968,8 +984,22 @@ ProposeResult propose(const Brief& brief, int threads, const ProgressFn& progres
       msg += ": no arrangement of the pins in [space] is geometrically possible (each pin needs to lie "
              "outside the band line, clear of the other run, with room for the lever holes and the grip)"
              "; make the pins region larger or move it further from the drum";
-    } else if (least != nullptr && result.stats.feasible == 0) {
-      msg += std::string(": ") + kLimitNames[least->e.binding] + " binds; " + relax_hint(s, *least);
+    } else if (result.stats.feasible == 0) {
+      // The closest candidates each miss one limit: name them, the nearest first.
+      std::vector<const Found*> near;
+      for (const Found* f : missing_one)
+        if (f != nullptr) near.push_back(f);
+      std::stable_sort(near.begin(), near.end(),
+                       [](const Found* a, const Found* b) { return a->e.violation < b->e.violation; });
+      if (near.empty()) {
+        msg += ": every layout in the space misses two or more limits at once (operator force, travel, "
+               "pressure, stresses, self-locking); give the brake more room or a larger force";
+      } else {
+        msg += near.size() == 1 ? ":" : "; the closest layouts each miss one limit:";
+        for (const Found* f : near) {
+          msg += std::string("\n  - ") + kLimitNames[f->e.binding] + " binds: " + relax_hint(s, *f);
+        }
+      }
     } else {
       msg += ": " + std::to_string(result.stats.feasible) + " layouts passed the search, but none passed the "
              "full checks and the hardware plan";
