@@ -48,7 +48,7 @@ void draw_scatter(Canvas& c, const ProposeResult& r, Box frame) {
   x1 = std::ceil(x1 / sx) * sx;
   y0 = std::floor(y0 / sy) * sy;
   y1 = std::ceil(y1 / sy) * sy;
-  const Box area{frame.x0 + 16, frame.y0 + 12, frame.x1 - 4, frame.y1 - 8};
+  const Box area{frame.x0 + 16, frame.y0 + 12, frame.x1 - 4, frame.y1 - 13};
   auto at = [&](double x, double y) {
     return Pt{area.x0 + (x - x0) / (x1 - x0) * area.width(), area.y0 + (y - y0) / (y1 - y0) * area.height()};
   };
@@ -74,10 +74,13 @@ void draw_scatter(Canvas& c, const ProposeResult& r, Box frame) {
     const Pt p = at(f.band_mass, f.force);
     c.pen(Pen::wide, kProposalInk);
     c.circle(p, 1.6);
-    c.text(p + Pt{2.2, 1.2}, std::string("P").append(std::to_string(i + 1)), Lettering::body, Align::left, 0, kProposalInk);
+    // Labels alternate right and left so that neighbours stay legible.
+    const bool right = i % 2 == 0;
+    c.text(p + Pt{right ? 2.2 : -2.2, (i % 4 < 2) ? 1.2 : -3.2}, std::string("P").append(std::to_string(i + 1)),
+           Lettering::body, right ? Align::left : Align::right, 0, kProposalInk);
   }
   c.pen(Pen::narrow);
-  c.text({area.x0, frame.y1 - Lettering::heading - 5},
+  c.text({frame.x0, frame.y1 - Lettering::heading - 5},
          std::to_string(r.cloud.size()) + " of " + std::to_string(r.stats.feasible) +
              " feasible layouts shown (grey); proposals in blue",
          Lettering::label);
@@ -170,21 +173,20 @@ std::string render_proposal_sheet(const Brief& b, const ProposeResult& r) {
 
   // Ranked table along the bottom left.
   Table t;
-  t.widths = {9, 30, 21, 16, 26, 14, 18, 16, 16, 18, 15, 15};
-  t.align = {Align::left, Align::left, Align::left, Align::right, Align::left, Align::right, Align::right,
+  t.widths = {10, 21, 12, 20, 10, 16, 17, 16, 16, 16, 14, 16};
+  t.align = {Align::left, Align::left, Align::right, Align::left, Align::right, Align::right, Align::right,
              Align::right, Align::right, Align::right, Align::right, Align::right};
-  t.rows.push_back({"Rank", "Number", "Kind", "Wrap", "Band b × t, pin [mm]", "Force [N]", "Pressure [MPa]",
+  t.rows.push_back({"Rank", "Kind", "Wrap", "Band b × t [mm]", "Pin Ø", "Force [N]", "Pressure [MPa]",
                     "Band σ [MPa]", "Lever σ [MPa]", "Self-lock f", "Band [kg]", "Travel [mm]"});
   for (std::size_t i = 0; i < r.proposals.size(); ++i) {
     const Proposal& p = r.proposals[i];
     const Figures& fi = p.figures;
     const Design& d = p.design;
-    t.rows.push_back({"P" + std::to_string(i + 1), d.project.number, to_string(p.kind),
+    t.rows.push_back({std::string("P").append(std::to_string(i + 1)), to_string(p.kind),
                       fmt("%.0f°", fi.wrap * 180 / 3.14159265358979323846),
-                      fmt("%g", d.band.width * 1000) + " × " + fmt("%g", d.band.thickness * 1000) + ", Ø" +
-                          fmt("%g", d.band.pin_diameter * 1000),
-                      fmt("%.1f", fi.force), fmt("%.3f", fi.pressure / 1e6), fmt("%.1f", fi.band_stress / 1e6),
-                      fmt("%.1f", fi.lever_stress / 1e6),
+                      fmt("%g", d.band.width * 1000) + " × " + fmt("%g", d.band.thickness * 1000),
+                      fmt("%g", d.band.pin_diameter * 1000), fmt("%.1f", fi.force), fmt("%.3f", fi.pressure / 1e6),
+                      fmt("%.1f", fi.band_stress / 1e6), fmt("%.1f", fi.lever_stress / 1e6),
                       std::isfinite(fi.self_lock_friction) ? fmt("%.3f", fi.self_lock_friction) : std::string("none"),
                       fmt("%.2f", fi.band_mass), fmt("%.1f", fi.travel * 1000)});
   }
@@ -192,16 +194,21 @@ std::string render_proposal_sheet(const Brief& b, const ProposeResult& r) {
   fit_width(t, table_w);
   const double table_h = table_height(c, t);
   const Pt table_top{f.x0 + 4, f.y0 + 4 + table_h};
-  c.text({table_top.x, table_top.y + 2}, "Ranked proposals (figures: worst case over f_min…f_max; limits: " +
-                                             fmt("%.0f N", b.max_force) + " operator force, " +
-                                             fmt("%.3g MPa", b.lining.pressure_limit / 1e6) + " lining pressure, " +
-                                             fmt("%.3g MPa", b.stock.band_allowable_stress / 1e6) + " band, " +
-                                             fmt("%.3g MPa", b.stock.lever_allowable_stress / 1e6) + " lever)",
+  c.text({table_top.x, table_top.y + 2 + Lettering::body * 1.6}, "Ranked proposals " + b.project.number +
+             "-P1 … (files <number>-Pn.toml); figures are the worst case over f_min…f_max" +
+             (b.both_directions ? ", both rotations" : ""),
+         Lettering::body);
+  c.text({table_top.x, table_top.y + 2}, "Limits: force " + fmt("%.0f N", b.max_force) +
+             (b.max_travel > 0 ? ", travel " + fmt("%.0f mm", b.max_travel * 1000) : std::string()) +
+             ", pressure " + fmt("%.3g", b.lining.pressure_limit / 1e6) + ", band σ " +
+             fmt("%.3g", b.stock.band_allowable_stress / 1e6) + ", lever σ " +
+             fmt("%.3g MPa", b.stock.lever_allowable_stress / 1e6) +
+             (b.allow_self_locking ? std::string() : ", self-lock f ≥ " + fmt("%.3g", b.self_lock_margin * b.lining.friction_max)),
          Lettering::body);
   draw_table(c, t, table_top);
 
   // Above the table: the plot on the left, the sketches on the right.
-  const double top = f.y1 - 4, bottom = table_top.y + 8;
+  const double top = f.y1 - 4, bottom = table_top.y + 12;
   const double plot_w = 150;
   draw_scatter(c, r, {f.x0 + 4, bottom, f.x0 + 4 + plot_w, top});
   const Box sketches{f.x0 + plot_w + 12, std::max(bottom, caution.y1 + 4), f.x1 - 4, top};

@@ -14,6 +14,7 @@
 
 #include <functional>
 #include <limits>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -82,8 +83,22 @@ std::string proposal_toml(const Brief& brief, const Proposal& p, int rank);
 /// proposals.csv: header and one row per proposal.
 std::string proposals_csv(const std::vector<Proposal>& proposals);
 
-/// The inner evaluation alone, for the benchmark: evaluates `count` layouts from the brief's
-/// coarse grid and returns how many were feasible (tests/bench/propose_bench.cpp).
-long long evaluate_grid_sample(const Brief& brief, long long count);
+/// The inner evaluation alone, for the benchmark (tests/bench/propose_bench.cpp): `count`
+/// candidates of the brief's coarse pass (repeated if the pass has fewer), all of them, or only
+/// those whose layout exists and passes the 2-D screen (every direction and limit evaluated).
+class CandidateSample {
+ public:
+  CandidateSample(const Brief& brief, long long count, bool solved_only);
+  ~CandidateSample();
+  CandidateSample(const CandidateSample&) = delete;
+  CandidateSample& operator=(const CandidateSample&) = delete;
+  long long size() const;
+  /// Evaluates every candidate once; returns how many meet every limit.
+  long long evaluate() const;
+
+ private:
+  struct Impl;
+  std::unique_ptr<Impl> impl_;
+};
 
 }  // namespace bandforge

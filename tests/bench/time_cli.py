@@ -2,9 +2,10 @@
 """Wall time and peak memory of whole bandforge commands, process start included.
 
 Usage: tests/bench/time_cli.py BUILD_DIR [RUNS]
-Prints the median and maximum wall time of `solve --json` and `build` on the bundled example, and
+Prints the median and maximum wall time of `solve --json` and `build` on the bundled example and
+of `propose` on every example brief, and
 the peak resident memory measured by /usr/bin/time -v. Targets (README "Performance"): solve --json
-under 30 ms, build under 250 ms and 200 MB.
+under 30 ms, build under 250 ms and 200 MB; propose under 5 s and 200 MB.
 """
 import os
 import re
@@ -54,5 +55,15 @@ if probe.returncode == 0:
     out = tempfile.mkdtemp(prefix="bandforge-bench-")
     try:
         report("build bin-hoist", [exe, "build", example, "-o", out])
+    finally:
+        shutil.rmtree(out, ignore_errors=True)
+
+# propose on every example brief (issue 8 target: 5 proposals in ≤ 5 s on 2 cores, ≤ 200 MB).
+briefs_dir = os.path.join(root, "examples", "briefs")
+for brief in sorted(f for f in os.listdir(briefs_dir) if f.endswith(".toml")):
+    out = tempfile.mkdtemp(prefix="bandforge-bench-")
+    try:
+        report(f"propose {os.path.splitext(brief)[0]}",
+               [exe, "propose", os.path.join(briefs_dir, brief), "-o", out, "--quiet"])
     finally:
         shutil.rmtree(out, ignore_errors=True)
