@@ -201,6 +201,14 @@ class Search {
     });
     for (double w : b_.stock.lever_width)
       for (double t : b_.stock.lever_thickness) plates_.push_back({w, t});
+    for (const Region& k : b_.keep_out) {
+      Box box{k.corners[0].x, k.corners[0].y, k.corners[0].x, k.corners[0].y};
+      for (Vec2 c : k.corners) {
+        box.x0 = std::min(box.x0, c.x); box.x1 = std::max(box.x1, c.x);
+        box.y0 = std::min(box.y0, c.y); box.y1 = std::max(box.y1, c.y);
+      }
+      keep_out_boxes_.push_back(box);
+    }
     std::stable_sort(plates_.begin(), plates_.end(), [](const auto& x, const auto& y) {
       return x[0] * x[1] < y[0] * y[1] || (x[0] * x[1] == y[0] * y[1] && x[1] < y[1]);
     });
@@ -213,19 +221,16 @@ class Search {
 
   /// A complete design for `p` (project number and title as given).
   Design design_of(const Params& p) const {
-    Design d;
-    d.file = "(proposal)";
-    d.project = b_.project;
+    Design d = prepared();
     apply(p, d);
     return d;
   }
 
-  /// Fills everything `p` decides into `d` (no allocation after the first call on `d`).
-  void apply(const Params& p, Design& d) const {
-    const double D = b_.drum_diameters[static_cast<std::size_t>(p.drum)];
-    const auto& band = bands_[static_cast<std::size_t>(p.band)];
-    d.drum.diameter = D;
-    d.drum.width = drum_width(band[0]);
+  /// A scratch design for evaluate(): everything the brief fixes, set once (strings included).
+  Design prepared() const {
+    Design d;
+    d.file = "(proposal)";
+    d.project = b_.project;
     d.drum.bore = b_.bore;
     d.drum.rotation = b_.rotation;
     d.drum.material = b_.drum_material.material;
@@ -233,27 +238,36 @@ class Search {
     d.drum.specific_heat = b_.drum_material.specific_heat;
     d.drum.material_source = b_.drum_material.material_source;
     d.lining = b_.lining;
-    d.band.width = band[0];
-    d.band.thickness = band[1];
     d.band.allowable_stress = b_.stock.band_allowable_stress;
-    d.band.sense = p.sense;
-    d.band.end_a = {p.mount_a, p.a};
-    d.band.end_b = {p.mount_b, p.b};
-    d.band.pin_diameter = b_.stock.pin_diameter[static_cast<std::size_t>(p.pin)];
     d.band.pin_allowable_shear = b_.stock.band_allowable_stress / std::sqrt(3.0);
     d.band.clearance = b_.clearance;
     d.band.model = TensionModel::thin;
     d.band.end_joint = EndJointChoice::automatic;
-    const auto& plate = plates_[static_cast<std::size_t>(p.plate)];
-    d.lever.pivot = p.pivot;
-    d.lever.handle = p.handle;
-    d.lever.width = plate[0];
-    d.lever.thickness = plate[1];
     d.lever.allowable_stress = b_.stock.lever_allowable_stress;
     d.load.given = Load::Given::torque;
     d.load.torque = b_.torque;
     d.load.service_factor = b_.service_factor;
     d.duty = b_.duty;
+    return d;
+  }
+
+  /// Fills what `p` decides into a prepared() design (plain numbers only: nothing allocated).
+  void apply(const Params& p, Design& d) const {
+    const double D = b_.drum_diameters[static_cast<std::size_t>(p.drum)];
+    const auto& band = bands_[static_cast<std::size_t>(p.band)];
+    d.drum.diameter = D;
+    d.drum.width = drum_width(band[0]);
+    d.band.width = band[0];
+    d.band.thickness = band[1];
+    d.band.sense = p.sense;
+    d.band.end_a = {p.mount_a, p.a};
+    d.band.end_b = {p.mount_b, p.b};
+    d.band.pin_diameter = b_.stock.pin_diameter[static_cast<std::size_t>(p.pin)];
+    const auto& plate = plates_[static_cast<std::size_t>(p.plate)];
+    d.lever.pivot = p.pivot;
+    d.lever.handle = p.handle;
+    d.lever.width = plate[0];
+    d.lever.thickness = plate[1];
   }
 
   /// Drum face width: the brief's, or the band width plus a margin each side (common practice).
@@ -291,11 +305,6 @@ class Search {
         e.tension = std::max(e.tension, x.tension_tight);
         e.lever_moment = std::max(e.lever_moment, x.lever_moment);
       }
-    }
-    if (!b_.both_directions) {
-      fig.torque_reverse_force = solve_direction(d, L, !a_tight, f_[0]).lever_force;
-    } else {
-      fig.torque_reverse_force = r[1][0].lever_force;
     }
     // Lowest self-locking friction over both rotations (as solve() computes it, §1.7).
     for (int dir = 0; dir < 2; ++dir) {
@@ -371,20 +380,24 @@ class Search {
         if (dist(holes[i], holes[k]) < 2 * pin_r + wall) return false;
       if (dist(d.lever.handle, holes[i]) < hardware_rules::grip_diameter / 2 + pin_r + wall) return false;
     }
-    for (const Region& k : b_.keep_out) {
-      const auto& poly = k.corners;
-      // Pins (with their eyes), the band runs and the lever's centre lines.
+    for (std::size_t ki = 0; ki < b_.keep_out.size(); ++ki) {
+      const auto& poly = b_.keep_out[ki].corners;
+      const Box& box = keep_out_boxes_[ki];
+      // Pins (with their eyes), the band runs and the lever's centre lines; a bounding-box test
+      // first spares the exact distances for what is plainly far away.
       for (Vec2 pin : {L.a.pin, L.b.pin, d.lever.pivot}) {
+        if (!box.near(pin, pin, eye + wall)) continue;
         if (inside_polygon(poly, pin)) return false;
         for (std::size_t i = 0; i < poly.size(); ++i)
           if (segment_distance(pin, poly[i], poly[(i + 1) % poly.size()]) < eye + wall) return false;
       }
-      if (segment_to_polygon(L.a.pin, L.a.tangent_point, poly) < d.band.thickness) return false;
-      if (segment_to_polygon(L.b.pin, L.b.tangent_point, poly) < d.band.thickness) return false;
+      const double t = d.band.thickness, half = d.lever.width / 2;
+      if (box.near(L.a.pin, L.a.tangent_point, t) && segment_to_polygon(L.a.pin, L.a.tangent_point, poly) < t) return false;
+      if (box.near(L.b.pin, L.b.tangent_point, t) && segment_to_polygon(L.b.pin, L.b.tangent_point, poly) < t) return false;
       for (int i = 0; i < n; ++i)
-        if (segment_to_polygon(d.lever.handle, holes[i], poly) < d.lever.width / 2) return false;
+        if (box.near(d.lever.handle, holes[i], half) && segment_to_polygon(d.lever.handle, holes[i], poly) < half) return false;
       for (int i = 1; i < n; ++i)
-        if (segment_to_polygon(holes[0], holes[i], poly) < d.lever.width / 2) return false;
+        if (box.near(holes[0], holes[i], half) && segment_to_polygon(holes[0], holes[i], poly) < half) return false;
     }
     return true;
   }
@@ -481,7 +494,16 @@ class Search {
   }
 
  private:
+  /// An axis-aligned box: does the segment a–b, grown by `margin`, come near it?
+  struct Box {
+    double x0, y0, x1, y1;
+    bool near(Vec2 a, Vec2 b, double margin) const {
+      return std::min(a.x, b.x) - margin <= x1 && std::max(a.x, b.x) + margin >= x0 &&
+             std::min(a.y, b.y) - margin <= y1 && std::max(a.y, b.y) + margin >= y0;
+    }
+  };
   const Brief& b_;
+  std::vector<Box> keep_out_boxes_;
   double f_[3] = {0, 0, 0};
   double steel_density_ = 7850.0;
   std::vector<std::array<double, 2>> bands_;
@@ -546,8 +568,7 @@ ChunkResult run_chunk(const Search& s, const Samples& sm, const Chunk& c, std::s
   ChunkResult out;
   // One shortlist per kind, so that the best of each kind survives to the end.
   Shortlist lists[3] = {Shortlist(s, keep), Shortlist(s, keep), Shortlist(s, keep)};
-  Design d;
-  d.project = b.project;
+  Design d = s.prepared();
   auto consider = [&](Params p) {
     // Handle: the best sample for the goal among those the force, travel and grip allow. The
     // force at H is M/|H − O| (M, the actuating moment, does not depend on H).
@@ -656,8 +677,7 @@ ChunkResult run_chunk(const Search& s, const Samples& sm, const Chunk& c, std::s
 /// each point in a fixed order, accept the first improvement, halve the step when none.
 Found refine(const Search& s, Found start, double step0, long long& evaluations) {
   const Brief& b = s.brief();
-  Design d;
-  d.project = b.project;
+  Design d = s.prepared();
   Found best = start;
   const Region& frame = or_pins(b.frame_pin, b);
   const Region& lever = or_pins(b.lever_pins, b);
@@ -699,8 +719,7 @@ double round_to(double v, double grid) { return std::round(v / grid) * grid; }
 /// The same candidate with positions on a tidy grid, if that keeps it feasible and in its regions.
 Found tidy(const Search& s, const Found& f, long long& evaluations) {
   const Brief& b = s.brief();
-  Design d;
-  d.project = b.project;
+  Design d = s.prepared();
   for (double grid : {kRound, 0.0001}) {
     Params p = f.p;
     for (Vec2* v : {&p.a, &p.b, &p.pivot, &p.handle}) *v = {round_to(v->x, grid), round_to(v->y, grid)};
@@ -1013,7 +1032,7 @@ ProposeResult propose(const Brief& brief, int threads, const ProgressFn& progres
 }
 
 struct CandidateSample::Impl {
-  explicit Impl(const Brief& b) : search(b) {}
+  explicit Impl(const Brief& b) : search(b), scratch(search.prepared()) {}
   Search search;
   std::vector<Params> params;
   mutable Design scratch;

@@ -35,7 +35,6 @@ struct Figures {
   double lever_stress = 0;  ///< largest lever bending stress [Pa]
   double self_lock_friction = std::numeric_limits<double>::infinity();  ///< lowest f that locks
   double wrap = 0;          ///< [rad]
-  double torque_reverse_force = 0;  ///< force for the torque in the reverse rotation [N] (0: locks)
 };
 
 struct Proposal {

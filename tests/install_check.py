@@ -56,14 +56,14 @@ def same_tree(a, b):
 
 def man_covers_help(exe, man_text):
     plain = man_text.replace("\\-", "-")
-    for cmd in ([], ["solve"], ["build"], ["new"], ["materials"]):
+    for cmd in ([], ["solve"], ["build"], ["propose"], ["new"], ["materials"]):
         r = run([exe] + cmd + ["--help"])
         opts = sorted(set(re.findall(r"(?<![\w-])(--[a-z][a-z0-9-]*)", r.stdout)))
         expect(r.returncode == 0 and "--help" in opts, f"`bandforge {' '.join(cmd)} --help` lists its options")
         missing = [o for o in opts if o not in plain]
         expect(not missing, f"man page describes every option of `bandforge {' '.join(cmd)}`"
                             + (f" (missing: {', '.join(missing)})" if missing else f" ({', '.join(opts)})"))
-    for cmd in ("solve", "build", "new", "materials"):
+    for cmd in ("solve", "build", "propose", "new", "materials"):
         expect(re.search(rf'^\.BI? "?{cmd}( |"|$)', man_text, re.M) is not None,
                f"man page has an entry for `{cmd}` under COMMANDS")
 
@@ -85,7 +85,9 @@ def tree(a):
         expect(os.access(p, os.X_OK), f"installed and executable: {os.path.relpath(p, root)}")
     for p in (man, os.path.join(doc, "README.md")):
         expect(os.path.isfile(p), f"installed: {os.path.relpath(p, root)}")
-    src_examples = sorted(f for f in os.listdir(os.path.join(a.source, "examples")) if f.endswith(".toml"))
+    src_examples = sorted(os.path.relpath(os.path.join(d, f), os.path.join(a.source, "examples"))
+                          for d, _, files in os.walk(os.path.join(a.source, "examples"))
+                          for f in files if f.endswith(".toml"))
     for f in src_examples:
         p = os.path.join(doc, "examples", f)
         expect(os.path.isfile(p) and filecmp.cmp(p, os.path.join(a.source, "examples", f), shallow=False),
@@ -117,6 +119,16 @@ def tree(a):
     expect(ref.returncode == 0, "build tree's `bandforge build`")
     diffs, n = same_tree(os.path.join(elsewhere, "out"), os.path.join(a.work, "ref"))
     expect(n >= 4 and not diffs, f"the installed build wrote the same {n} files, byte for byte"
+                                 + (f" (differ: {', '.join(diffs)})" if diffs else ""))
+    # propose from the installed tree (handed to the installed bandforge-cad for the review sheet):
+    # the build tree's bytes.
+    brief = os.path.join(doc, "examples", "briefs", "bin-hoist.toml")
+    inst = run([exe, "propose", brief, "-o", "proposals", "--quiet"], cwd=elsewhere)
+    expect(inst.returncode == 0, "installed `bandforge propose` from another folder" +
+           ("" if inst.returncode == 0 else ": " + inst.stderr[-400:]))
+    ref = run([build_exe, "propose", brief, "-o", os.path.join(a.work, "ref-proposals"), "--quiet"], cwd=a.work)
+    diffs, n = same_tree(os.path.join(elsewhere, "proposals"), os.path.join(a.work, "ref-proposals"))
+    expect(ref.returncode == 0 and n >= 3 and not diffs, f"the installed propose wrote the same {n} files"
                                  + (f" (differ: {', '.join(diffs)})" if diffs else ""))
     pdfinfo = run(["pdfinfo", os.path.join(elsewhere, "out", "KFW-2207-BR.pdf")]).stdout
     expect(re.search(rf"^Producer:\s+bandforge {re.escape(version)} ", pdfinfo, re.M) is not None,
