@@ -503,7 +503,7 @@ std::string or_default(const std::string& s, const char* fallback) {
   return s.empty() ? std::string(fallback) : s;
 }
 
-Thermal thermal_of(const Design& d, const Solution& s) {
+Thermal thermal_of(const Design& d, const Layout& layout, double primary_torque) {
   Thermal th;
   const Duty& duty = d.duty;
   if (!duty.present) return th;
@@ -520,14 +520,14 @@ Thermal thermal_of(const Design& d, const Solution& s) {
     th.hoist_torque = theta > 0 ? th.energy / theta : 0.0;
   } else {
     th.energy = 0.5 * duty.inertia * duty.speed * duty.speed;
-    const double torque = s.primary().torque;
+    const double torque = primary_torque;
     th.stop_time = torque > 0 ? duty.inertia * duty.speed / torque : 0.0;
   }
   th.rim_mass = drum_rim_mass(d);
   const double heat_capacity = th.rim_mass * d.drum.specific_heat;
   th.temperature_rise = heat_capacity > 0 ? th.energy / heat_capacity : 0.0;
   th.peak_temperature = duty.ambient + th.temperature_rise;
-  th.lining_area = d.band.width * s.layout.r * s.layout.wrap;
+  th.lining_area = d.band.width * layout.r * layout.wrap;
   if (th.stop_time > 0 && th.lining_area > 0) {
     th.power_density_mean = th.energy / (th.stop_time * th.lining_area);
     th.power_density_peak = 2.0 * th.power_density_mean;  // uniform deceleration (§2.3)
@@ -694,6 +694,10 @@ LayoutFault try_pin_layout(const Design& design, Layout& layout) {
   return pin_layout_core(design, layout);
 }
 
+Thermal solve_thermal(const Design& design, const Layout& layout, double primary_torque) {
+  return thermal_of(design, layout, primary_torque);
+}
+
 DirectionResult solve_direction(const Design& design, const Layout& layout, bool a_tight,
                                 double friction) {
   return direction(design, layout, a_tight, friction, design.band.model);
@@ -734,7 +738,7 @@ Solution solve(const Design& design) {
   }
 
   s.capacity = capacity_at(design, L, f[0], design.band.model);
-  s.thermal = thermal_of(design, s);
+  s.thermal = thermal_of(design, s.layout, s.primary().torque);
   add_checks(design, s);
   // What bandforge adds by itself (brackets, end joints), with its own checks.
   s.hardware = plan_hardware(design, s);

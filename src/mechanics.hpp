@@ -136,6 +136,10 @@ LayoutFault try_pin_layout(const Design& design, Layout& layout);
 DirectionResult solve_direction(const Design& design, const Layout& layout, bool a_tight,
                                 double friction);
 
+/// The thermal results of solve() for a layout, given the torque of the design rotation at the
+/// nominal friction (what solve() uses); not present without a [duty] block.
+Thermal solve_thermal(const Design& design, const Layout& layout, double primary_torque);
+
 /// The whole solution: both directions at f_min, f_nominal and f_max, capacity, thermal, checks.
 Solution solve(const Design& design);
 

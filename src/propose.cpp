@@ -15,6 +15,7 @@
 #include <numbers>
 #include <thread>
 
+#include "src/band_path.hpp"
 #include "src/errors.hpp"
 #include "src/hardware.hpp"
 #include "src/materials.hpp"
@@ -148,10 +149,14 @@ struct Params {
 };
 
 /// The limits a candidate is judged by, in a fixed order (also the infeasible message's).
-enum Limit { kForce, kTravel, kRotation, kPressure, kBandStress, kPinShear, kLever, kSelfLock, kDiffLock, kLimits };
-const char* const kLimitNames[kLimits] = {"operator force", "handle travel", "lever release rotation",
-                                          "lining pressure", "band stress", "pin shear", "lever bending",
-                                          "self-locking friction", "differential self-lock ratio"};
+enum Limit {
+  kForce, kTravel, kRotation, kPressure, kBandStress, kPinShear, kLever, kSelfLock, kDiffLock,
+  kHoist, kTemperature, kPower, kRelease, kLimits
+};
+const char* const kLimitNames[kLimits] = {
+    "operator force", "handle travel", "lever release rotation", "lining pressure", "band stress",
+    "pin shear", "lever bending", "self-locking friction", "differential self-lock ratio",
+    "hoist holding torque", "drum temperature", "power per lining area", "released state"};
 
 struct Eval {
   bool geometry = false;  ///< the layout exists and the 2-D screen passes
@@ -341,7 +346,20 @@ class Search {
     } else {
       set(kDiffLock, 1, 0, false);
     }
-    // A brake that locks at f_min gives no force figure: it must be allowed to lock.
+    // The [duty] checks of solve(): the hoist's holding torque, the drum temperature after a stop
+    // (the rim mass follows the drum width, which follows the band) and the power per lining
+    // area (b·r·φ).
+    set(kHoist, 1, 0, false);
+    set(kTemperature, 0, 1, true);
+    set(kPower, 0, 1, true);
+    if (b_.duty.present) {
+      const Thermal th = solve_thermal(d, L, r[0][1].torque);
+      if (b_.duty.hoist_mass > 0) {
+        set(kHoist, b_.torque * b_.service_factor, b_.duty.hoist_mass * 9.80665 * b_.duty.rope_radius, false);
+      }
+      if (b_.lining.temperature_limit > 0) set(kTemperature, th.peak_temperature, b_.lining.temperature_limit, true);
+      if (b_.lining.power_limit > 0) set(kPower, th.power_density_peak, b_.lining.power_limit, true);
+    }
     e.violation = -1e300;
     for (int i = 0; i < kLimits; ++i) {
       double v;
@@ -357,7 +375,47 @@ class Search {
       }
     }
     e.feasible = e.violation <= 1e-12;
+    // The released state (as plan_hardware() checks it, for riveted eyes): the lever turned back,
+    // the band on r_b + clearance; each lever end keeps an eye's length of run and no eye reaches
+    // the other run. Only for candidates that pass everything else: it costs a second layout.
+    set(kRelease, 0, 1, true);
+    if (e.feasible) {
+      const double gap = released_gap(d, L);
+      if (gap < 0) {
+        const double eye = d.band.pin_diameter / 2 + d.band.thickness;
+        e.value[kRelease] = -gap;
+        e.limit[kRelease] = eye;
+        e.excess[kRelease] = -gap / eye;
+        e.violation = e.excess[kRelease];
+        e.binding = kRelease;
+        e.feasible = false;
+      }
+    }
     return e;
+  }
+
+  /// Least clearance of the released state [m] (negative: it fails); see evaluate().
+  static double released_gap(const Design& d, const Layout& L) {
+    const double eye = d.band.pin_diameter / 2 + d.band.thickness;
+    const double radius = L.r_band + d.band.clearance;
+    const double turn = -L.apply_sense * L.release_rotation;
+    for (const EndLayout* e : {&L.a, &L.b}) {
+      const Vec2 p = e->mount == Mount::lever ? rotate_about(e->pin, d.lever.pivot, turn) : e->pin;
+      if (norm(p) <= radius + 1e-9) return norm(p) - radius - eye;
+    }
+    const Layout rel = released_layout(d, L);
+    double least = 1e300;
+    for (const EndLayout* e : {&rel.a, &rel.b})
+      if (e->mount == Mount::lever) least = std::min(least, e->free_length - eye);
+    const Vec2 a0 = rel.a.pin, a1 = rel.a.tangent_point, b0 = rel.b.pin, b1 = rel.b.tangent_point;
+    const double runs = segments_cross(a0, a1, b0, b1)
+                            ? 0.0
+                            : std::min({segment_distance(a0, b0, b1), segment_distance(a1, b0, b1),
+                                        segment_distance(b0, a0, a1), segment_distance(b1, a0, a1)});
+    least = std::min(least, runs - d.band.thickness);
+    least = std::min(least, segment_distance(a0, b0, b1) - eye - d.band.thickness / 2);
+    least = std::min(least, segment_distance(b0, a0, a1) - eye - d.band.thickness / 2);
+    return least;
   }
 
   /// The 2-D screen on the hardware's rules (src/hardware.cpp): lever holes apart, the grip
@@ -790,6 +848,21 @@ std::string relax_hint(const Search& s, const Found& f) {
       return "the best self-locks at f = " + fmt("%.3f", value) + ", below the margin × f_max = " +
              fmt("%.3f", limit) + "; a simple or summing layout, a smaller [limits] self_lock_margin, "
              "or allow_self_locking = true (for a backstop) would relax it";
+    case kHoist:
+      return "the torque × service factor, " + fmt("%.4g N·m", value) + ", is below the " +
+             fmt("%.4g N·m", limit) + " that holds the hoist load (m·g·r_rope); raise [load] torque or "
+             "service_factor";
+    case kTemperature:
+      return "the best reaches " + fmt("%.0f °C", value) + " after one stop against " + fmt("%.0f °C", limit) +
+             "; a larger drum (more rim mass), a wider drum face ([drum] width) or a lining with a "
+             "higher temperature limit would relax it";
+    case kPower:
+      return "the best reaches " + fmt("%.3g W/mm²", value / 1e6) + " per lining area against " +
+             fmt("%.3g W/mm²", limit / 1e6) + "; a wider band, a larger drum or a larger wrap would relax it";
+    case kRelease:
+      return "in the released state (lever turned back by the release rotation) a band end of the "
+             "best comes " + mm_text(value) + " too close to the other run or to the drum; a larger "
+             "net lever arm (a smaller release rotation) or pins further from the drum would relax it";
     case kDiffLock:
       return "the best differential layout has a slack-to-tight arm ratio of " + fmt("%.2f", value) +
              " × e^(f_max·φ), below the " + fmt("%.1f", limit) + " solve checks; a simple or summing layout would relax it";
@@ -800,7 +873,8 @@ std::string relax_hint(const Search& s, const Found& f) {
 
 }  // namespace
 
-ProposeResult propose(const Brief& brief, int threads, const ProgressFn& progress) {
+ProposeResult propose(const Brief& brief, int threads, const ProgressFn& progress,
+                      const BuildCheckFn& builds) {
   ProposeResult result;
   const Search s(brief);
   // About 36 pin samples and 40 handle samples: about 100 000 layouts per drum and arrangement.
@@ -899,6 +973,7 @@ ProposeResult propose(const Brief& brief, int threads, const ProgressFn& progres
   struct Passed {
     Found f;
     Design d;
+    Solution sol;
     std::string why_chosen;
   };
   std::vector<Passed> passed;
@@ -934,26 +1009,43 @@ ProposeResult propose(const Brief& brief, int threads, const ProgressFn& progres
       if (result.stats.rejections.size() < 5) result.stats.rejections.push_back(why);
       continue;
     }
-    passed.push_back({f, std::move(d), ""});
+    passed.push_back({f, std::move(d), std::move(sol), ""});
   }
   // The best overall, then the best of each other kind, then the rest in order: a reviewer
-  // sees the alternatives, not only variations of the winner.
-  std::vector<std::size_t> chosen;
-  auto take = [&](std::size_t i, const std::string& why) {
-    if (static_cast<int>(chosen.size()) >= brief.proposals) return;
-    if (std::find(chosen.begin(), chosen.end(), i) != chosen.end()) return;
-    passed[i].why_chosen = why;
-    chosen.push_back(i);
-  };
-  if (!passed.empty()) take(0, "best found");
+  // sees the alternatives, not only variations of the winner. With a build check, a candidate
+  // whose solids cannot be built is passed over for the next.
+  std::vector<std::pair<std::size_t, std::string>> order;
+  if (!passed.empty()) order.push_back({0, "best found"});
   for (BrakeKind k : {BrakeKind::simple, BrakeKind::differential, BrakeKind::summing}) {
     for (std::size_t i = 0; i < passed.size(); ++i) {
       if (passed[i].f.e.kind != k) continue;
-      take(i, std::string("best ") + to_string(k) + " layout found");
+      order.push_back({i, std::string("best ") + to_string(k) + " layout found"});
       break;
     }
   }
-  for (std::size_t i = 0; i < passed.size(); ++i) take(i, "next best distinct layout");
+  for (std::size_t i = 0; i < passed.size(); ++i) order.push_back({i, "next best distinct layout"});
+  std::vector<std::size_t> chosen;
+  std::vector<std::size_t> tried;
+  bool first_taken = false;
+  for (const auto& [i, why] : order) {
+    if (static_cast<int>(chosen.size()) >= brief.proposals) break;
+    if (std::find(tried.begin(), tried.end(), i) != tried.end()) continue;
+    tried.push_back(i);
+    if (builds) {
+      if (progress) progress(0.96, "building the proposals");
+      const std::string fault = builds(passed[i].d, passed[i].sol);
+      ++result.stats.built;
+      if (!fault.empty()) {
+        ++result.stats.rejected;
+        if (result.stats.rejections.size() < 5) result.stats.rejections.push_back("build: " + fault);
+        continue;
+      }
+    }
+    // The first one taken is the best that builds, whatever the order said.
+    passed[i].why_chosen = first_taken ? why : "best found";
+    first_taken = true;
+    chosen.push_back(i);
+  }
   std::sort(chosen.begin(), chosen.end());
   for (std::size_t i : chosen) {
     Proposal prop;

@@ -23,6 +23,8 @@
 
 namespace bandforge {
 
+struct Solution;  // src/mechanics.hpp
+
 /// Figures of one candidate or proposal (SI).
 struct Figures {
   double force = 0;         ///< operator force at f_min, design rotation (both if asked) [N]
@@ -57,7 +59,8 @@ struct SearchStats {
   long long feasible = 0;    ///< layouts that passed every inner check
   int shortlisted = 0;       ///< refined
   int validated = 0;         ///< read back through solve() and plan_hardware()
-  int rejected = 0;          ///< of those, refused by the full checks or the hardware plan
+  int rejected = 0;          ///< of those, refused by the full checks, the hardware plan or the build
+  int built = 0;             ///< solids built and checked (with a build check)
   std::vector<std::string> rejections;  ///< why (first few), for the infeasible message
 };
 
@@ -73,8 +76,15 @@ struct ProposeResult {
 /// Called now and then with the fraction done (0…1) and what is being done.
 using ProgressFn = std::function<void(double fraction, const std::string& stage)>;
 
-/// The search. `threads` ≥ 1 (the result does not depend on it).
-ProposeResult propose(const Brief& brief, int threads = 2, const ProgressFn& progress = {});
+/// Builds the solids of a design that passed solve() and the hardware plan; returns "" when they
+/// build and pass their checks, else why not. Supplied by the command (geometry/), so that the
+/// core stays free of OpenCASCADE.
+using BuildCheckFn = std::function<std::string(const Design&, const Solution&)>;
+
+/// The search. `threads` ≥ 1 (the result does not depend on it). With `builds`, only designs
+/// whose solids build become proposals.
+ProposeResult propose(const Brief& brief, int threads = 2, const ProgressFn& progress = {},
+                      const BuildCheckFn& builds = {});
 
 /// A design file's text for a proposal, with a comment header (why, margins, caution).
 std::string proposal_toml(const Brief& brief, const Proposal& p, int rank);

@@ -23,6 +23,10 @@
 #include "src/propose.hpp"
 #include "src/staging.hpp"
 
+#ifdef BANDFORGE_HAVE_GEOMETRY
+#include "geometry/brake_model.hpp"
+#include "src/mechanics.hpp"
+#endif
 #ifdef BANDFORGE_HAVE_DRAWING
 #include "drawing/proposal_sheet.hpp"
 #endif
@@ -79,7 +83,25 @@ void run_propose(const ProposeCommand& cmd) {
       std::fflush(stderr);
     };
   }
-  const ProposeResult result = propose(brief, std::max(1, cmd.threads), progress);
+  // Every proposal's solids are built and checked (validity, interference) as `build` does,
+  // in the applied state and, when the released state is planned to build, in that one too.
+  const geom::QuietOcct quiet;
+  const BuildCheckFn builds = [](const Design& d, const Solution& s) -> std::string {
+    try {
+      geom::BuildOptions applied;
+      (void)geom::build_brake(d, s, applied);
+      if (s.hardware.release_ok) {
+        geom::BuildOptions released;
+        released.released = true;
+        released.interference = false;
+        (void)geom::build_brake(d, s, released);
+      }
+    } catch (const Error& e) {
+      return e.what();
+    }
+    return "";
+  };
+  const ProposeResult result = propose(brief, std::max(1, cmd.threads), progress, builds);
   if (shown) std::fprintf(stderr, "\n");
   if (result.proposals.empty()) {
     throw Error(Exit::no_proposal, (cmd.brief == "-" ? std::string("<stdin>") : cmd.brief) + ": " +
@@ -141,7 +163,9 @@ void run_propose(const ProposeCommand& cmd) {
                     {"feasible_layouts", result.stats.feasible},
                     {"shortlisted", result.stats.shortlisted},
                     {"validated", result.stats.validated},
-                    {"rejected_on_read_back", result.stats.rejected}}},
+                    {"solids_built", result.stats.built},
+                    {"rejected_on_read_back", result.stats.rejected},
+                    {"first_rejections", result.stats.rejections}}},
         {"files", files}};
     std::cout << j.dump(2) << '\n';
     return;
@@ -149,7 +173,8 @@ void run_propose(const ProposeCommand& cmd) {
   std::cout << "bandforge propose: " << brief.project.number << "  " << brief.project.title << "\n";
   std::cout << "searched " << result.stats.layouts << " layouts (" << result.stats.feasible
             << " feasible), refined " << result.stats.shortlisted << ", checked "
-            << result.stats.validated << " in full\n\n";
+            << result.stats.validated << " in full, built and checked the solids of "
+            << result.stats.built << " (" << result.stats.rejected << " refused on read-back)\n\n";
   std::cout << "rank  number                kind          force [N]  band [kg]  travel [mm]  lever [mm]\n";
   for (std::size_t i = 0; i < result.proposals.size(); ++i) {
     const Proposal& p = result.proposals[i];
