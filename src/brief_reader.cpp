@@ -157,6 +157,25 @@ class BriefReader : public schema::Reader {
       r.corners.push_back({quantity_of(*xy->get(0), path, Quantity::length),
                            quantity_of(*xy->get(1), path, Quantity::length)});
     }
+    if (r.corners.size() >= 4) {
+      // Edges that cross (corners not in order round the region) make a bow-tie.
+      const auto& c = r.corners;
+      const std::size_t count = c.size();
+      const auto orient = [](Vec2 p, Vec2 q, Vec2 t) { return (q.x - p.x) * (t.y - p.y) - (q.y - p.y) * (t.x - p.x); };
+      for (std::size_t i = 0; i < count; ++i) {
+        for (std::size_t k = i + 2; k < count; ++k) {
+          if (i == 0 && k == count - 1) continue;  // neighbours through the closing edge
+          const Vec2 a = c[i], b = c[(i + 1) % count], p = c[k], q = c[(k + 1) % count];
+          const double o1 = orient(a, b, p), o2 = orient(a, b, q), o3 = orient(p, q, a), o4 = orient(p, q, b);
+          if (((o1 > 0 && o2 < 0) || (o1 < 0 && o2 > 0)) && ((o3 > 0 && o4 < 0) || (o3 < 0 && o4 > 0))) {
+            fail(pos(n), path, written(n),
+                 "the region's edges cross each other (corner " + std::to_string(i + 1) + "–" +
+                     std::to_string(i + 2) + " and corner " + std::to_string(k + 1) + "–" +
+                     std::to_string((k + 1) % count + 1) + "): list the corners in order round the region");
+          }
+        }
+      }
+    }
     if (r.corners.size() >= 3) {
       double area2 = 0;
       for (std::size_t i = 0; i < r.corners.size(); ++i) {

@@ -5,6 +5,8 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <cstdint>
+#include <cstdio>
 #include <filesystem>
 #include <fstream>
 #include <numbers>
@@ -140,6 +142,10 @@ TEST(BriefReader, MistakesNameFileLineColumnKeyAndWhatIsValid) {
                         "[\"0 mm\", \"-400 mm\"]]"));
   EXPECT_NE(e.find("space.pins"), std::string::npos) << e;
   EXPECT_NE(e.find("enclose no area"), std::string::npos) << e;
+  // Corners not in order round the region: a bow-tie.
+  e = error_of(replaced(kSmall, "[\"300 mm\", \"-400 mm\"], [\"300 mm\", \"-250 mm\"]",
+                        "[\"300 mm\", \"-250 mm\"], [\"300 mm\", \"-400 mm\"]"));
+  EXPECT_NE(e.find("edges cross each other"), std::string::npos) << e;
   // An unknown goal.
   e = error_of(std::string(kSmall) + "\n[goal]\nminimise = \"cost\"\n");
   EXPECT_NE(e.find("goal.minimise"), std::string::npos) << e;
@@ -377,4 +383,63 @@ TEST(ProposeSearch, InfeasibleBriefNamesTheBindingLimit) {
   const double needs = std::stod(r.infeasible.substr(at + 15));
   EXPECT_GT(needs, 15.0);
   EXPECT_NE(r.infeasible.find("handle region reaching"), std::string::npos) << r.infeasible;
+}
+
+// Generated briefs (drum, torque, force limit, regions, an occasional keep-out), fixed seed: the
+// search never crashes; it either proposes designs that read back passing every check, or says
+// what binds.
+TEST(ProposeSearch, GeneratedBriefsProposeOrExplain) {
+  std::uint64_t state = 20261202;
+  auto uniform = [&](double lo, double hi) {
+    state = state * 6364136223846793005ull + 1442695040888963407ull;  // Knuth's MMIX LCG
+    return lo + (hi - lo) * static_cast<double>(state >> 11) / 9007199254740992.0;
+  };
+  int proposed = 0, explained = 0;
+  for (int i = 0; i < 16; ++i) {
+    const double D = uniform(250, 600), R = D / 2;
+    const double top = -(R + uniform(20, 80)), depth = uniform(80, 220), half = uniform(0.5, 1.2) * R;
+    const double hx0 = half + uniform(30, 150), hx1 = hx0 + uniform(150, 700);
+    char text[2048];
+    std::snprintf(text, sizeof text, R"([project]
+title = "Generated %d"
+number = "GEN-%d"
+[drum]
+diameter = "%.1f mm"
+bore = "%.1f mm"
+rotation = "%s"
+[lining]
+material = "%s"
+thickness = "%.1f mm"
+[load]
+torque = "%.0f N*m"
+service_factor = 1.25
+[operator]
+max_force = "%.0f N"
+[space]
+pins = [["%.1f mm", "%.1f mm"], ["%.1f mm", "%.1f mm"], ["%.1f mm", "%.1f mm"], ["%.1f mm", "%.1f mm"]]
+handle = [["%.1f mm", "%.1f mm"], ["%.1f mm", "%.1f mm"], ["%.1f mm", "%.1f mm"], ["%.1f mm", "%.1f mm"]]
+%s
+[goal]
+proposals = 3
+)",
+                  i, i, D, 0.15 * D, uniform(0, 1) < 0.5 ? "cw" : "ccw", uniform(0, 1) < 0.5 ? "woven" : "molded",
+                  uniform(0, 1) < 0.2 ? 0.0 : uniform(3, 6), uniform(80, 1200), uniform(120, 350),
+                  -half, top - depth, half, top - depth, half, top, -half, top,
+                  hx0, top - depth - 60, hx1, top - depth - 60, hx1, top + 60, hx0, top + 60,
+                  uniform(0, 1) < 0.3 ? "keep_out = [[[\"-30 mm\", \"-2000 mm\"], [\"30 mm\", \"-2000 mm\"], [\"30 mm\", \"-600 mm\"], [\"-30 mm\", \"-600 mm\"]]]" : "");
+    const bf::Brief brief = bf::read_brief_text(text, "generated.toml");
+    const bf::ProposeResult r = bf::propose(brief, 2);
+    if (r.proposals.empty()) {
+      ++explained;
+      EXPECT_NE(r.infeasible.find("no layout in the space holds"), std::string::npos) << text;
+      continue;
+    }
+    ++proposed;
+    for (const bf::Proposal& p : r.proposals) {
+      const bf::Solution s = bf::solve(bf::read_design_text(bf::proposal_toml(brief, p, 1), "p.toml"));
+      for (const bf::Check& c : s.checks) EXPECT_TRUE(c.ok) << text << "\n" << c.id;
+      EXPECT_TRUE(s.hardware.refusal.empty()) << s.hardware.refusal;
+    }
+  }
+  EXPECT_GE(proposed, 6) << explained << " explained";
 }
