@@ -31,7 +31,7 @@ const Ink kCloudInk{0.55, 0.55, 0.55};
 
 /// Force against band mass: every feasible layout as a grey dot, the proposals as numbered
 /// circles.
-void draw_scatter(Canvas& c, const ProposeResult& r, Box frame) {
+void draw_scatter(Canvas& c, const Brief& b, const ProposeResult& r, Box frame) {
   double x0 = 1e300, x1 = -1e300, y0 = 1e300, y1 = -1e300;
   auto take = [&](double x, double y) {
     x0 = std::min(x0, x);
@@ -48,7 +48,7 @@ void draw_scatter(Canvas& c, const ProposeResult& r, Box frame) {
   x1 = std::ceil(x1 / sx) * sx;
   y0 = std::floor(y0 / sy) * sy;
   y1 = std::ceil(y1 / sy) * sy;
-  const Box area{frame.x0 + 16, frame.y0 + 12, frame.x1 - 4, frame.y1 - 13};
+  const Box area{frame.x0 + 16, frame.y0 + 12, frame.x1 - 4, frame.y1 - 17};
   auto at = [&](double x, double y) {
     return Pt{area.x0 + (x - x0) / (x1 - x0) * area.width(), area.y0 + (y - y0) / (y1 - y0) * area.height()};
   };
@@ -80,7 +80,16 @@ void draw_scatter(Canvas& c, const ProposeResult& r, Box frame) {
            Lettering::body, right ? Align::left : Align::right, 0, kProposalInk);
   }
   c.pen(Pen::narrow);
+  std::string drums;
+  for (double dd : b.drum_diameters) drums += (drums.empty() ? "Ø" : "/") + fmt("%g", dd * 1000);
   c.text({frame.x0, frame.y1 - Lettering::heading - 5},
+         "Brief: " + fmt("%.4g N·m", b.torque) + " × " + fmt("%g", b.service_factor) +
+             (b.both_directions ? " both rotations" : std::string(" drum ") + to_string(b.rotation)) + ", drum " +
+             drums + " mm, " + (b.lining.material.empty() ? std::string("lining") : b.lining.material + " lining") +
+             " f " + fmt("%.2f", b.lining.friction_min) + "–" + fmt("%.2f", b.lining.friction_max) + ", goal: " +
+             to_string(b.goal),
+         Lettering::label);
+  c.text({frame.x0, frame.y1 - Lettering::heading - 8.5},
          std::to_string(r.cloud.size()) + " of " + std::to_string(r.stats.feasible) +
              " feasible layouts shown (grey); proposals in blue",
          Lettering::label);
@@ -194,8 +203,8 @@ std::string render_proposal_sheet(const Brief& b, const ProposeResult& r) {
   fit_width(t, table_w);
   const double table_h = table_height(c, t);
   const Pt table_top{f.x0 + 4, f.y0 + 4 + table_h};
-  c.text({table_top.x, table_top.y + 2 + Lettering::body * 1.6}, "Ranked proposals " + b.project.number +
-             "-P1 … (files <number>-Pn.toml); figures are the worst case over f_min…f_max" +
+  c.text({table_top.x, table_top.y + 2 + Lettering::body * 1.6},
+         "Ranked proposals (files " + b.project.number + "-Pn.toml), worst case over f_min…f_max" +
              (b.both_directions ? ", both rotations" : ""),
          Lettering::body);
   c.text({table_top.x, table_top.y + 2}, "Limits: force " + fmt("%.0f N", b.max_force) +
@@ -210,7 +219,7 @@ std::string render_proposal_sheet(const Brief& b, const ProposeResult& r) {
   // Above the table: the plot on the left, the sketches on the right.
   const double top = f.y1 - 4, bottom = table_top.y + 12;
   const double plot_w = 150;
-  draw_scatter(c, r, {f.x0 + 4, bottom, f.x0 + 4 + plot_w, top});
+  draw_scatter(c, b, r, {f.x0 + 4, bottom, f.x0 + 4 + plot_w, top});
   const Box sketches{f.x0 + plot_w + 12, std::max(bottom, caution.y1 + 4), f.x1 - 4, top};
   const int n = static_cast<int>(r.proposals.size());
   const int cols = n <= 2 ? n : (n <= 4 ? 2 : 3);
