@@ -13,6 +13,7 @@
 #include "drawing/sheet.hpp"
 #include "drawing/table.hpp"
 #include "drawing/text_fit.hpp"
+#include "src/fits.hpp"
 #include "src/report.hpp"
 
 namespace bandforge::drawing {
@@ -745,6 +746,44 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
                     "that passes bore bearing 0.90 F_y and plate bending 0.60 F_y (single plate) or "
                     "cheek net section 0.45 F_y (two cheeks) (AISC ASD 1989, from memory).");
     b.push_back(heading(std::to_string(section++) + "  Generated hardware"));
+    b.push_back(paragraphs(lines, true));
+  }
+  {
+    // Fits and tolerances (ISO 286 deviations always in mm, as the standard gives them).
+    std::vector<std::string> lines;
+    auto dev = [](double v) {
+      char buf[32];
+      std::snprintf(buf, sizeof buf, "%+.3f", v * 1000.0);
+      return v == 0 ? std::string("0") : std::string(buf);
+    };
+    auto describe = [&](const char* what, const fits::Fit& f, const char* why) {
+      lines.push_back(std::string(what) + " " + f.designation() + ": hole " + f.hole_code + " " +
+                      dev(f.hole.upper) + "/" + dev(f.hole.lower) + " mm, shaft " + f.shaft_code + " " +
+                      dev(f.shaft.upper) + "/" + dev(f.shaft.lower) + " mm; clearance " +
+                      dev(f.clearance_min()) + "…" + dev(f.clearance_max()) + " mm (negative: interference). " +
+                      why);
+    };
+    if (s.hardware.present) {
+      if (const auto f = fits::fit(d.band.pin_diameter, fits::kPinHole, fits::kPinShaft)) {
+        describe("Band-end and pivot pins", *f,
+                 "A loose clearance fit for clevis joints, tolerant of paint and dirt (common practice, "
+                 "no source).");
+      } else {
+        lines.push_back("Pins Ø" + dim_length(d.band.pin_diameter, UnitSystem::si) +
+                        " mm: outside the ISO 286 range bandforge carries (3–120 mm); specify the fit by hand.");
+      }
+    }
+    if (const auto f = fits::fit(d.drum.bore, fits::kBoreHole, fits::kBoreShaft)) {
+      describe("Drum bore on its shaft", *f, "A transition fit for a keyed hub (common practice, no source).");
+    } else {
+      lines.push_back("Drum bore Ø" + dim_length(d.drum.bore, UnitSystem::si) +
+                      " mm: outside the ISO 286 range bandforge carries (3–120 mm); specify the fit by hand.");
+    }
+    lines.push_back("Limit deviations from ISO 286-1:2010 (standard tolerance grades) and ISO 286-2:2010 "
+                    "(fundamental deviations), always in mm. Sizes without "
+                    "their own tolerance: ISO 2768-1 class m, geometry ISO 2768-2 class K. Drum friction "
+                    "surface turned to Ra 1.6 µm (usual 0.8–3.2 µm; common practice, no source).");
+    b.push_back(heading(std::to_string(section++) + "  Fits and tolerances"));
     b.push_back(paragraphs(lines, true));
   }
   if (!s.warnings.empty()) {

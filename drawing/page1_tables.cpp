@@ -1,5 +1,7 @@
 #include "drawing/page1_tables.hpp"
 
+#include "src/fits.hpp"
+
 #include "drawing/format.hpp"
 
 namespace bandforge::drawing {
@@ -79,6 +81,16 @@ std::vector<std::string> general_notes(const Design& d, const Solution& s, UnitS
     n.push_back("Band ends: A " + joint(h.joint_a) + ", B " + joint(h.joint_b) +
                 "; frame plates " + dim_length(h.brackets.empty() ? 0 : h.brackets[0].thickness, u) +
                 " thick; sizes and checks on the calculation sheet.");
+  }
+  // Fits (ISO 286) and general tolerances; the limit deviations are on the calculation sheet.
+  {
+    std::string note = "Fits ISO 286: ";
+    const auto pin = fits::fit(d.band.pin_diameter, fits::kPinHole, fits::kPinShaft);
+    const auto bore = fits::fit(d.drum.bore, fits::kBoreHole, fits::kBoreShaft);
+    if (s.hardware.present && pin) note += "pins " + pin->designation() + ", ";
+    if (bore) note += "drum bore " + bore->designation() + ", ";
+    n.push_back((pin || bore ? note + "deviations on the calculation sheet. " : std::string()) +
+                "General tolerances ISO 2768-mK; friction surface Ra 1.6 µm.");
   }
   if (s.hardware.release_ok) {
     n.push_back("Applied position shown; lever released (radial clearance " +

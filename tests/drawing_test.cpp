@@ -751,5 +751,37 @@ TEST(DrawingExamples, EveryExampleIsDrawn) {
   EXPECT_GE(pin_layouts, 1);
 }
 
+// ---- fits and tolerances (issue 10) --------------------------------------------------------
+
+namespace {
+// Text with runs of white space (line breaks of the column flow) made single spaces.
+std::string squeezed(std::string t) {
+  std::string out;
+  for (char c : t) {
+    const bool space = c == ' ' || c == '\n' || c == '\r' || c == '\t';
+    if (space && (out.empty() || out.back() == ' ')) continue;
+    out += space ? ' ' : c;
+  }
+  return out;
+}
+}  // namespace
+
+// The limit deviations printed on the calculation sheet equal ISO 286's values for three sizes
+// (REFERENCE §5.8: ISO 286-1 IT grades and ISO 286-2 fundamental deviations, from memory, high
+// confidence): Ø16 (10–18 mm: IT11 110 µm, c −95 µm), Ø60 (50–65 mm: IT7 30, IT6 19, k +2 µm),
+// Ø50 (30–50 mm: IT7 25, IT6 16, k +2 µm). The assembly sheet names the fits and ISO 2768-mK.
+TEST(DrawingFits, LimitDeviationsOnTheCalculationSheetAreIso286) {
+  const std::string hoist = squeezed(text_of(example().pdf));
+  EXPECT_NE(hoist.find("Ø16 H11/c11: hole H11 +0.110/0 mm, shaft c11 -0.095/-0.205 mm"), std::string::npos);
+  EXPECT_NE(hoist.find("Ø60 H7/k6: hole H7 +0.030/0 mm, shaft k6 +0.021/+0.002 mm"), std::string::npos);
+  const std::string page1 = squeezed(text_of(example().pdf, 1));
+  EXPECT_NE(page1.find("pins Ø16 H11/c11"), std::string::npos) << page1;
+  EXPECT_NE(page1.find("ISO 2768-mK"), std::string::npos);
+  auto ferry = draw(kSource + "/examples/ferry-differential.toml", "ferry-fits.pdf");
+  const std::string f = squeezed(text_of(ferry->pdf));
+  EXPECT_NE(f.find("Ø50 H7/k6: hole H7 +0.025/0 mm, shaft k6 +0.018/+0.002 mm"), std::string::npos);
+  EXPECT_NE(f.find("Ø14 H11/c11: hole H11 +0.110/0 mm, shaft c11 -0.095/-0.205 mm"), std::string::npos);
+}
+
 }  // namespace
 }  // namespace bandforge::drawing
