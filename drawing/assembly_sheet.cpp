@@ -157,7 +157,12 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
       if (dims_left(f)) foot.push_back({F.min.x * k - fm.left, vlo - 4, F.min.x * k, vhi + 4});
       else foot.push_back({F.max.x * k, vlo - 4, F.max.x * k + fm.right, vhi + 4});
     }
-    const double dx = fg.x1 + gap + sm.left - S.min.x * k;
+    // First angle: the view from the left goes on the right of the front view; third angle: on
+    // its left, beyond the front view's own dimension strips (ISO 5456-2).
+    double front_left = fg.x0;
+    for (const Box& b : foot) front_left = std::min(front_left, b.x0);
+    const bool third = d.drawing.projection == Projection::third;
+    const double dx = third ? front_left - gap - sm.right - S.max.x * k : fg.x1 + gap + sm.left - S.min.x * k;
     const Box sr{dx + S.min.x * k - sm.left, S.min.y * k - sm.bottom, dx + S.max.x * k + sm.right,
                  S.max.y * k + sm.top};
     foot.push_back(sr);
@@ -199,9 +204,9 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
     plan.front_origin = best;
     plan.side_origin = {best.x + dx, best.y};
     plan.drum_centre = plan.front_origin;
-    plan.views_box = {plan.front_origin.x + F.min.x * k,
+    plan.views_box = {std::min(plan.front_origin.x + F.min.x * k, plan.side_origin.x + S.min.x * k),
                       plan.front_origin.y + std::min(F.min.y, S.min.y) * k,
-                      plan.side_origin.x + S.max.x * k,
+                      std::max(plan.front_origin.x + F.max.x * k, plan.side_origin.x + S.max.x * k),
                       plan.front_origin.y + std::max(F.max.y, S.max.y) * k};
     return plan;
   }

@@ -41,6 +41,7 @@ TitleData title_data(const Design& d, UnitSystem u) {
   t.creator = p.creator;
   t.approver = p.approver;
   t.units = units_text(u);
+  t.third_angle = d.drawing.projection == Projection::third;
   return t;
 }
 
@@ -82,6 +83,9 @@ Planned plan_all(const Canvas& c, const Design& design, const Solution& solution
     plan.scale_num = a.scale.num;
     plan.scale_den = a.scale.den;
     plan.drum_x_mm = a.drum_centre.x;
+    plan.side_x_mm = a.side_origin.x;
+    plan.side_y_mm = a.side_origin.y;
+    plan.third_angle = design.drawing.projection == Projection::third;
     plan.drum_y_mm = a.drum_centre.y;
     plan.views_box[0] = a.views_box.x0;
     plan.views_box[1] = a.views_box.y0;

@@ -25,6 +25,10 @@ struct SheetPlan {
   /// Drum centre in the front view, mm from the sheet's lower-left corner (PDF convention).
   double drum_x_mm = 0;
   double drum_y_mm = 0;
+  /// Drum centre in the view from the left (the side view), same convention.
+  double side_x_mm = 0;
+  double side_y_mm = 0;
+  bool third_angle = false;  ///< views placed in third-angle projection ([drawing] projection)
   /// Title block box, mm from the lower-left corner: x0, y0, x1, y1.
   double title_block[4] = {0, 0, 0, 0};
   /// Box around all view geometry (front, side and their centre lines) on page 1.

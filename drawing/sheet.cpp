@@ -93,23 +93,27 @@ void draw_frame(Canvas& c, const SheetSize& s) {
   }
 }
 
-void draw_first_angle_symbol(Canvas& c, Box cell) {
-  // ISO 5456-2 first-angle symbol: a truncated cone seen from the side, small end on the left,
-  // and to its right the view from the left (first angle places it there): two concentric
-  // circles, the small end face in front of the large one.
+void draw_projection_symbol(Canvas& c, Box cell, bool third_angle) {
+  // ISO 5456-2: a truncated cone seen from the side, small end toward the other view, and the
+  // view from the small end: two concentric circles, the small end face in front of the large
+  // one. First angle places that view on the right of the cone; third angle on its left (the
+  // whole symbol mirrored).
   const double big = std::min(cell.height() * 0.42, cell.width() * 0.16);  // large end radius
   const double small = big / 2;
   const double length = 2 * big, gap = 0.8 * big;
   const double cy = (cell.y0 + cell.y1) / 2;
-  const double x0 = (cell.x0 + cell.x1) / 2 - (length + gap + 2 * big) / 2;
+  const double mid = (cell.x0 + cell.x1) / 2;
+  const double half = (length + gap + 2 * big) / 2;
+  // x measured from the symbol's left end in first angle; mirrored about `mid` in third.
+  const auto X = [&](double u) { return third_angle ? mid + half - u : mid - half + u; };
   c.pen(Pen::wide);
-  c.polyline({{x0, cy - small}, {x0 + length, cy - big}, {x0 + length, cy + big}, {x0, cy + small},
-              {x0, cy - small}});
-  const Pt cc{x0 + length + gap + big, cy};
+  c.polyline({{X(0), cy - small}, {X(length), cy - big}, {X(length), cy + big}, {X(0), cy + small},
+              {X(0), cy - small}});
+  const Pt cc{X(length + gap + big), cy};
   c.circle(cc, big);
   c.circle(cc, small);
   c.pen(Pen::centre);
-  c.line({x0 - 1, cy}, {cc.x + big + 1, cy});
+  c.line({X(-1), cy}, {X(length + gap + 2 * big + 1), cy});
   c.line({cc.x, cy - big - 1}, {cc.x, cy + big + 1});
 }
 
@@ -176,7 +180,7 @@ void draw_title_block(Canvas& c, const SheetSize& s, const TitleData& t) {
             {130, 144, "Lang.", "en", Lettering::body},
             {144, 180, "Projection", "", Lettering::body}});
   const Box proj{L + 144, y - 14, L + 180, y - Lettering::label - 1.5};
-  if (t.projection_symbol) draw_first_angle_symbol(c, proj);
+  if (t.projection_symbol) draw_projection_symbol(c, proj, t.third_angle);
   c.pen(Pen::wide);
   c.rect(tb);
 }

@@ -52,7 +52,8 @@ struct TitleData {
   std::string doc_type;       ///< document type, e.g. "Assembly drawing"
   std::string scale;          ///< "1:5", or "—" for a sheet without views
   std::string units;          ///< "mm" or "in" (dimensions), plus the result units
-  bool projection_symbol = true;  ///< draw the first-angle symbol
+  bool projection_symbol = true;  ///< draw the projection symbol
+  bool third_angle = false;       ///< the third-angle symbol instead of the first-angle one
   int sheet = 1;
   int sheets = 1;
 };
@@ -67,8 +68,8 @@ Box title_block_box(const SheetSize& s);
 void draw_frame(Canvas& c, const SheetSize& s);
 void draw_title_block(Canvas& c, const SheetSize& s, const TitleData& t);
 
-/// The ISO 5456-2 first-angle projection symbol, centred in `cell`.
-void draw_first_angle_symbol(Canvas& c, Box cell);
+/// The ISO 5456-2 projection symbol, centred in `cell`: first angle, or third angle (mirrored).
+void draw_projection_symbol(Canvas& c, Box cell, bool third_angle);
 
 /// The caution every sheet carries (README "Safety").
 const char* caution_text();

@@ -133,9 +133,16 @@ struct Concept {
   double arm_b = 0.0;       ///< perpendicular arm of end B about the pivot [m]
 };
 
+/// Projection method of the drawing's views (ISO 5456-2).
+enum class Projection {
+  first,  ///< first angle: the view from the left placed on the right of the front view (ISO default)
+  third,  ///< third angle: the view from the left placed on its left (ASME Y14.3, US shops)
+};
+
 /// Drawing options (used by drawing/).
 struct DrawingOptions {
   std::string sheet;   ///< "A2", "A3", "A4"; "" = A3
+  Projection projection = Projection::first;
   int scale_num = 0;   ///< scale numerator, 0 = choose automatically
   int scale_den = 0;   ///< scale denominator
 };

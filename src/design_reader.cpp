@@ -305,8 +305,11 @@ class DesignReader : public schema::Reader {
   }
 
   void read_drawing(const Section& s) {
-    check_keys(s, {"sheet", "scale"});
+    check_keys(s, {"sheet", "scale", "projection"});
     DrawingOptions& dw = d_.drawing;
+    if (auto proj = choice(s, "projection", {"first", "third"})) {
+      dw.projection = *proj == 0 ? Projection::first : Projection::third;
+    }
     if (auto sheet = choice(s, "sheet", {"A2", "A3", "A4"})) {
       dw.sheet = std::array<const char*, 3>{"A2", "A3", "A4"}[*sheet];
     }
@@ -463,6 +466,8 @@ ambient = "30 °C"              # ambient temperature (°C, K, °F; default 40 �
 
 [drawing]
 sheet = "A3"                   # "A2", "A3" or "A4"
+# projection = "first"         # "first" (ISO 5456-2 first angle, the default) or "third" (third
+#                              # angle, ASME Y14.3): where the view from the left is placed
 # scale = "1:5"                # ISO 5455 scale; left out = chosen automatically
 )";
 }

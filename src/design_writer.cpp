@@ -124,8 +124,9 @@ std::string design_toml(const Design& d, const std::string& header) {
     o << "ambient = " << q(du.ambient, 1.0, "°C") << '\n';
   }
 
-  if (!d.drawing.sheet.empty() || d.drawing.scale_num > 0) {
+  if (!d.drawing.sheet.empty() || d.drawing.scale_num > 0 || d.drawing.projection == Projection::third) {
     o << "\n[drawing]\n";
+    if (d.drawing.projection == Projection::third) o << "projection = \"third\"\n";
     if (!d.drawing.sheet.empty()) o << "sheet = " << str(d.drawing.sheet) << '\n';
     if (d.drawing.scale_num > 0) o << "scale = \"" << d.drawing.scale_num << ":" << d.drawing.scale_den << "\"\n";
   }

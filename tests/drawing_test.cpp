@@ -40,7 +40,11 @@ using test::Shell;
 // ToUnicode CMap on every call; TOOLCHAIN.md).
 Shell run(const std::string& cmd) { return test::run(cmd + " 2>/dev/null"); }
 
-std::string quote(const fs::path& p) { return "'" + p.string() + "'"; }
+std::string quote(const fs::path& p) {
+  std::string out;  // appended piecewise: GCC 12 warns falsely (-Wrestrict) on "literal" + string
+  out.append(1, '\'').append(p.string()).append(1, '\'');
+  return out;
+}
 
 // One drawn design: the model built once per design and kept for the tests that share it.
 struct Drawn {
@@ -781,6 +785,89 @@ TEST(DrawingFits, LimitDeviationsOnTheCalculationSheetAreIso286) {
   const std::string f = squeezed(text_of(ferry->pdf));
   EXPECT_NE(f.find("Ø50 H7/k6: hole H7 +0.025/0 mm, shaft k6 +0.018/+0.002 mm"), std::string::npos);
   EXPECT_NE(f.find("Ø14 H11/c11: hole H11 +0.110/0 mm, shaft c11 -0.095/-0.205 mm"), std::string::npos);
+}
+
+
+// ---- projection method (issue 10) -----------------------------------------------------------
+
+namespace {
+
+/// The design file with `line` added after its [drawing] header (or a new [drawing] section).
+fs::path with_drawing_line(const std::string& source, const std::string& line, const std::string& name) {
+  std::string text = slurp(source);
+  const auto at = text.find("[drawing]\n");
+  if (at == std::string::npos) text += "\n[drawing]\n" + line + "\n";
+  else text.insert(at + 10, line + "\n");
+  const fs::path out = scratch_root() / name;
+  std::ofstream(out) << text;
+  return out;
+}
+
+/// x of the centroid of the dark pixels in the title block's projection cell, relative to the
+/// cell's centre [mm] (pdftoppm renders page 1 in grey at 300 dpi).
+double symbol_ink_offset(const Drawn& d) {
+  const double dpi = 300, px = dpi / 25.4;
+  const double x0 = d.plan.title_block[0] + 144, x1 = d.plan.title_block[0] + 180;
+  const double y0 = d.plan.title_block[1] + 0.5, y1 = d.plan.title_block[1] + 10.5;  // the bottom row, below its label
+  const int X = static_cast<int>(x0 * px), W = static_cast<int>((x1 - x0) * px);
+  const int Y = static_cast<int>((d.plan.height_mm - y1) * px), H = static_cast<int>((y1 - y0) * px);
+  const fs::path base = scratch_root() / ("symbol-" + d.pdf.stem().string());
+  const Shell r = run("pdftoppm -gray -r 300 -f 1 -l 1 -singlefile -x " + std::to_string(X) + " -y " +
+                      std::to_string(Y) + " -W " + std::to_string(W) + " -H " + std::to_string(H) + " " +
+                      quote(d.pdf) + " " + quote(base));
+  EXPECT_EQ(r.status, 0);
+  std::ifstream in(base.string() + ".pgm", std::ios::binary);
+  std::string magic;
+  int w = 0, h = 0, maxval = 0;
+  in >> magic >> w >> h >> maxval;
+  in.get();
+  EXPECT_EQ(magic, "P5");
+  std::vector<unsigned char> pixels(static_cast<std::size_t>(w) * static_cast<std::size_t>(h));
+  in.read(reinterpret_cast<char*>(pixels.data()), static_cast<std::streamsize>(pixels.size()));
+  double sum = 0;
+  long n = 0;
+  for (int j = 0; j < h; ++j)
+    for (int i = 0; i < w; ++i)
+      if (pixels[static_cast<std::size_t>(j) * static_cast<std::size_t>(w) + static_cast<std::size_t>(i)] < 128) {
+        sum += i;
+        ++n;
+      }
+  EXPECT_GT(n, 50) << "no symbol in the projection cell";
+  return n > 0 ? (sum / static_cast<double>(n) - w / 2.0) / px : 0.0;
+}
+
+}  // namespace
+
+// ISO 5456-2: first angle places the view from the left on the right of the front view and
+// draws the symbol's circles right of the cone; third angle (ASME Y14.3) both on the left.
+TEST(DrawingProjection, ThirdAngleMovesTheSideViewAndMirrorsTheSymbol) {
+  const Drawn& first = example();
+  EXPECT_FALSE(first.plan.third_angle);
+  EXPECT_GT(first.plan.side_x_mm, first.plan.drum_x_mm);
+  const double first_ink = symbol_ink_offset(first);
+  EXPECT_GT(first_ink, 0.5);  // the circles (more ink than the cone) on the right
+
+  auto third = draw(with_drawing_line(kExample, "projection = \"third\"", "third.toml").string(), "third.pdf");
+  EXPECT_TRUE(third->plan.third_angle);
+  EXPECT_LT(third->plan.side_x_mm, third->plan.drum_x_mm);
+  EXPECT_NEAR(third->plan.side_y_mm, third->plan.drum_y_mm, 1e-9);  // still level with the front view
+  const double third_ink = symbol_ink_offset(*third);
+  EXPECT_LT(third_ink, -0.5);
+  EXPECT_NEAR(third_ink, -first_ink, 0.3);  // the mirror image
+  // Nothing else moves into the title block or off the sheet.
+  EXPECT_LE(third->plan.views_box[2], third->plan.width_mm);
+  EXPECT_GE(third->plan.views_box[0], 0);
+}
+
+TEST(DrawingProjection, UnknownProjectionIsABadDesign) {
+  const fs::path bad = with_drawing_line(kExample, "projection = \"second\"", "bad-projection.toml");
+  try {
+    read_design_file(bad.string());
+    ADD_FAILURE() << "no error";
+  } catch (const DesignError& e) {
+    EXPECT_NE(std::string(e.what()).find("drawing.projection"), std::string::npos) << e.what();
+    EXPECT_NE(std::string(e.what()).find("\"first\" or \"third\""), std::string::npos) << e.what();
+  }
 }
 
 }  // namespace
