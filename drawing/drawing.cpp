@@ -1,5 +1,7 @@
 #include "drawing/drawing.hpp"
 
+#include "drawing/detail_sheet.hpp"
+
 #include <cerrno>
 #include <cstdio>
 #include <cstring>
@@ -106,7 +108,8 @@ SheetPlan plan_drawing(const Design& design, const Solution& solution, const geo
   int pages = 0;
   flow(measure, calculation_blocks(design, solution, cut_list, units),
        calc_columns(sheet_size(design.drawing.sheet), caution), &pages);
-  p.plan.pages = (p.plan.assembly ? 1 : 0) + pages;
+  p.plan.detail_sheets = p.plan.assembly ? 1 : 0;
+  p.plan.pages = (p.plan.assembly ? 1 : 0) + p.plan.detail_sheets + pages;
   return p.plan;
 }
 
@@ -125,8 +128,11 @@ std::string render_drawing(const Design& design, const Solution& solution,
   const std::vector<Block> blocks = calculation_blocks(design, solution, cut_list, units);
   int calc_pages = 0;
   const std::vector<Placed> placed = flow(c, blocks, calc_columns(s, caution), &calc_pages);
-  const int first_calc = plan.assembly ? 2 : 1;
+  // Assembly sheet, the detail sheets of the made parts (so far the lever), the calculation.
+  const int details = plan.assembly ? 1 : 0;
+  const int first_calc = (plan.assembly ? 2 : 1) + details;
   plan.pages = first_calc - 1 + calc_pages;
+  plan.detail_sheets = details;
 
   TitleData t = title_data(design, units);
   t.sheets = plan.pages;
@@ -141,6 +147,11 @@ std::string render_drawing(const Design& design, const Solution& solution,
     t.scale = a.scale.text();
     t.sheet = 1;
     draw_title_block(c, s, t);
+    TitleData lever = t;
+    lever.sheet = 2;
+    for (const DetailHole& h : draw_lever_sheet(c, s, design, solution, *model, units, lever)) {
+      plan.lever_holes.push_back({h.x, h.y, h.diameter});
+    }
   }
   for (int p = 0; p < calc_pages; ++p) {
     c.new_page(s.width, s.height);

@@ -8,6 +8,7 @@
 #include <fstream>
 #include <map>
 #include <memory>
+#include <array>
 #include <regex>
 #include <sstream>
 #include <string>
@@ -740,7 +741,10 @@ TEST(DrawingExamples, EveryExampleIsDrawn) {
     EXPECT_TRUE(d->plan.assembly);
     EXPECT_NE(page1.find("Assembly drawing"), std::string::npos);
     EXPECT_NE(page1.find(dia), std::string::npos) << dia;
-    EXPECT_NE(text_of(d->pdf, 2).find("Calculation sheet"), std::string::npos);
+    // Then the detail sheets of the made parts (issue 10: the lever so far), then the calculation.
+    EXPECT_EQ(d->plan.detail_sheets, 1);
+    EXPECT_NE(text_of(d->pdf, 2).find("Detail drawing"), std::string::npos);
+    EXPECT_NE(text_of(d->pdf, 2 + d->plan.detail_sheets).find("Calculation sheet"), std::string::npos);
     // The drum outline is where the plan says, at the sheet scale.
     const Gray g = render(d->pdf, 1, 100);
     const double r = d->design.drum.diameter / 2 * 1000 * d->plan.scale_num / d->plan.scale_den;
@@ -867,6 +871,49 @@ TEST(DrawingProjection, UnknownProjectionIsABadDesign) {
   } catch (const DesignError& e) {
     EXPECT_NE(std::string(e.what()).find("drawing.projection"), std::string::npos) << e.what();
     EXPECT_NE(std::string(e.what()).find("\"first\" or \"third\""), std::string::npos) << e.what();
+  }
+}
+
+
+// ---- the lever's detail sheet (issue 10) ----------------------------------------------------
+
+// The hole table, read back with pdftotext, gives hole centre distances equal to the distances
+// between the pin centres on the lever in the design file (at the printed 0.1 mm), and the
+// holes carry the pin fit; every example with pins.
+TEST(DrawingDetail, LeverHoleTableMatchesThePinsOfTheDesign) {
+  for (const char* name : {"bin-hoist.toml", "ferry-differential.toml", "trolley-two-way.toml"}) {
+    SCOPED_TRACE(name);
+    auto d = draw(kSource + "/examples/" + name, std::string("lever-") + name + ".pdf");
+    const std::string page = text_of(d->pdf, 2, true);
+    EXPECT_NE(page.find("Detail drawing"), std::string::npos);
+    // Lever holes of the design: the pivot, and each band end on the lever (not at the pivot).
+    std::vector<Vec2> pins{d->design.lever.pivot};
+    for (const BandEnd* e : {&d->design.band.end_a, &d->design.band.end_b}) {
+      const double off = std::hypot(e->at.x - d->design.lever.pivot.x, e->at.y - d->design.lever.pivot.y);
+      if (e->mount == Mount::lever && off > 1e-6) pins.push_back(e->at);
+    }
+    // Rows "H1   0.0   0.0   Ø16.0 H11".
+    std::vector<std::array<double, 3>> rows;
+    const std::regex row(R"(H(\d+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+Ø([\d.]+) H11)");
+    for (auto it = std::sregex_iterator(page.begin(), page.end(), row); it != std::sregex_iterator(); ++it) {
+      rows.push_back({std::stod((*it)[2]), std::stod((*it)[3]), std::stod((*it)[4])});
+    }
+    ASSERT_EQ(rows.size(), pins.size()) << page;
+    // Every pairwise centre distance, sorted: the table's equal the design's.
+    std::vector<double> from_design, from_table;
+    for (std::size_t i = 0; i < pins.size(); ++i)
+      for (std::size_t k = i + 1; k < pins.size(); ++k)
+        from_design.push_back(1000 * std::hypot(pins[i].x - pins[k].x, pins[i].y - pins[k].y));
+    for (std::size_t a = 0; a < rows.size(); ++a)
+      for (std::size_t b = a + 1; b < rows.size(); ++b)
+        from_table.push_back(std::hypot(rows[a][0] - rows[b][0], rows[a][1] - rows[b][1]));
+    std::sort(from_design.begin(), from_design.end());
+    std::sort(from_table.begin(), from_table.end());
+    for (std::size_t i = 0; i < from_design.size(); ++i) {
+      EXPECT_NEAR(from_table[i], from_design[i], 0.1) << "distance " << i;  // printed to 0.1 mm
+    }
+    for (const auto& r : rows) EXPECT_NEAR(r[2], d->design.band.pin_diameter * 1000, 0.05);
+    EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
   }
 }
 

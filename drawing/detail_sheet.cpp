@@ -1,0 +1,216 @@
+#include "drawing/detail_sheet.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+
+#include "drawing/annotate.hpp"
+#include "drawing/assembly_sheet.hpp"
+#include "drawing/format.hpp"
+#include "drawing/table.hpp"
+#include "drawing/views.hpp"
+#include "geometry/projection.hpp"
+#include "src/errors.hpp"
+#include "src/fits.hpp"
+
+namespace bandforge::drawing {
+namespace {
+
+/// The edges turned into the lever's frame: origin at the pivot, +x toward the handle.
+geom::ProjectedView to_frame(const geom::ProjectedView& v, geom::Point2 origin, double angle) {
+  const double c = std::cos(-angle), s = std::sin(-angle);
+  auto turn = [&](geom::Point2 p) {
+    const double x = p.x - origin.x, y = p.y - origin.y;
+    return geom::Point2{c * x - s * y, s * x + c * y};
+  };
+  geom::ProjectedView out;
+  out.min = {1e300, 1e300};
+  out.max = {-1e300, -1e300};
+  auto take = [&](geom::Point2 p) {
+    out.min = {std::min(out.min.x, p.x), std::min(out.min.y, p.y)};
+    out.max = {std::max(out.max.x, p.x), std::max(out.max.y, p.y)};
+  };
+  for (geom::ViewEdge e : v.edges) {
+    e.a = turn(e.a);
+    e.b = turn(e.b);
+    e.centre = turn(e.centre);
+    e.start -= angle;
+    for (auto& p : e.points) p = turn(p);
+    take(e.a);
+    take(e.b);
+    if (e.kind == geom::ViewEdge::Kind::arc) {
+      take({e.centre.x - e.radius, e.centre.y - e.radius});
+      take({e.centre.x + e.radius, e.centre.y + e.radius});
+    }
+    for (const auto& p : e.points) take(p);
+    out.edges.push_back(std::move(e));
+  }
+  return out;
+}
+
+std::string deviation(double metres) {
+  if (metres == 0) return "0";
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%+.3f", metres * 1000.0);
+  return buf;
+}
+
+std::string mm1(double v) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.1f", std::abs(v) < 0.05 ? 0.0 : v);
+  return buf;
+}
+
+}  // namespace
+
+std::vector<DetailHole> draw_lever_sheet(Canvas& c, const SheetSize& sheet, const Design& d,
+                                         const Solution& sol, const geom::BrakeModel& model,
+                                         UnitSystem u, const TitleData& title) {
+  const geom::Point2 pivot{d.lever.pivot.x * 1000, d.lever.pivot.y * 1000};
+  const double angle = std::atan2(d.lever.handle.y - d.lever.pivot.y, d.lever.handle.x - d.lever.pivot.x);
+  geom::ProjectOptions only_lever;
+  only_lever.smooth = false;
+  only_lever.kinds = {"lever"};
+  const geom::ProjectedView front = to_frame(geom::project(model, geom::front_view(), only_lever), pivot, angle);
+  // The edge view: looking at the plate's long edge from the lever's +y side (paper right = the
+  // lever axis, up = −z).
+  const geom::Vec3 along{std::cos(angle), std::sin(angle), 0}, side{-std::sin(angle), std::cos(angle), 0};
+  const geom::ViewSpec edge_spec{side, along, "lever edge"};
+  const geom::ProjectedView edge_raw = geom::project(model, edge_spec, only_lever);
+  // Its horizontal coordinate is the position along the lever axis measured from the model
+  // origin; shift it so that the pivot is at 0 like the front view.
+  const double shift = pivot.x * along.x + pivot.y * along.y;
+  geom::ProjectedView edge = to_frame(edge_raw, {shift, 0}, 0);
+  const double thickness = edge.max.y - edge.min.y;
+
+  // Holes: the projected circles of the lever's bores, clustered by centre.
+  std::vector<DetailHole> holes;
+  for (const geom::ViewEdge& e : front.edges) {
+    if (e.kind != geom::ViewEdge::Kind::arc || !e.visible) continue;
+    if (e.radius > 0.6 * d.lever.width * 1000 / 2) continue;  // not a corner of the outline
+    const bool seen = std::any_of(holes.begin(), holes.end(), [&](const DetailHole& h) {
+      return std::hypot(h.x - e.centre.x, h.y - e.centre.y) < 0.01;
+    });
+    if (!seen) holes.push_back({"", e.centre.x, e.centre.y, 2 * e.radius});
+  }
+  // Outline corners are arcs of radius w/2 about the hole centres too; keep the bores only.
+  holes.erase(std::remove_if(holes.begin(), holes.end(),
+                             [&](const DetailHole& h) { return h.diameter > d.lever.width * 1000 * 0.9; }),
+              holes.end());
+  std::sort(holes.begin(), holes.end(), [](const DetailHole& a, const DetailHole& b) { return a.x < b.x; });
+  for (std::size_t i = 0; i < holes.size(); ++i) holes[i].name = "H" + std::to_string(i + 1);
+
+  c.new_page(sheet.width, sheet.height);
+  draw_frame(c, sheet);
+  const Box f = frame_box(sheet);
+  const Box tb = title_block_box(sheet);
+  const Box caution = caution_box(c, sheet);
+
+  // Hole table and notes at the bottom left.
+  Table t;
+  t.widths = {14, 26, 26, 44};
+  t.align = {Align::left, Align::right, Align::right, Align::left};
+  t.rows.push_back({"Hole", "x", "y", "Size (ISO 286)"});
+  const auto pin_fit = fits::fit(d.band.pin_diameter, fits::kPinHole, fits::kPinShaft);
+  for (const DetailHole& h : holes) {
+    std::string size = "Ø" + mm1(h.diameter);
+    if (pin_fit && std::abs(h.diameter - d.band.pin_diameter * 1000) < 0.01) size += std::string(" ") + fits::kPinHole;
+    t.rows.push_back({h.name, mm1(h.x), mm1(h.y), size});
+  }
+  const double table_h = table_height(c, t);
+  const Pt table_top{f.x0 + 6, f.y0 + 6 + table_h};
+  draw_table(c, t, table_top);
+
+  const geom::PartInfo* part = nullptr;
+  for (const geom::PartInfo& p : model.parts())
+    if (p.name == "LEVER") part = &p;
+  std::vector<std::string> notes = {
+      "Part LEVER, quantity " + std::to_string(part ? part->instance_names.size() : 1) + ", " +
+          (part ? part->material : std::string("steel")) + " plate " + mm1(thickness) + " thick, mass " +
+          (part ? qty(part->mass, Quantity::mass, u, 3) : std::string("—")) + ".",
+      "Hole coordinates in mm from the centre of H1 (the pivot), x along the lever axis toward the handle.",
+      pin_fit ? "Holes " + pin_fit->designation().substr(0, pin_fit->designation().find(' ')) + " " +
+                    fits::kPinHole + " (" + deviation(pin_fit->hole.upper) + "/" + deviation(pin_fit->hole.lower) +
+                    " mm, ISO 286) for " + fits::kPinShaft + " pins."
+              : "Holes: fit to be specified (size outside the ISO 286 table carried).",
+      "General tolerances ISO 2768-mK. Remove burrs; break sharp edges 0.5.",
+      "The grip (part GRIP) is welded on at the handle end; see the assembly sheet."};
+  double y = table_top.y + 6;
+  for (auto it = notes.rbegin(); it != notes.rend(); ++it) {
+    c.text({f.x0 + 6, y}, *it, Lettering::body);
+    y += Lettering::body * 1.6;
+  }
+  c.text({f.x0 + 6, y + 1}, "NOTES", Lettering::body);
+  const double notes_top = y + 1 + Lettering::body;
+
+  // The views: as large an ISO 5455 scale as fits above the notes and left of the caution.
+  const Box area{f.x0 + 12, notes_top + 10, f.x1 - 12, f.y1 - 12};
+  const double w = front.max.x - front.min.x, h_front = front.max.y - front.min.y;
+  const double h_edge = edge.max.y - edge.min.y;
+  const double gap = 25;
+  Scale chosen{1, 1};
+  bool fits_any = false;
+  for (const Scale& sc : standard_scales()) {
+    const double k = sc.factor();
+    if (w * k + 30 <= area.width() && (h_front + h_edge) * k + gap + 30 <= area.height()) {
+      chosen = sc;
+      fits_any = true;
+      break;
+    }
+  }
+  if (!fits_any) throw BuildError("drawing: the lever does not fit its detail sheet " + sheet.name);
+  const double k = chosen.factor();
+  const bool third = d.drawing.projection == Projection::third;
+  const double x0 = (area.x0 + area.x1) / 2 - (front.min.x + w / 2) * k;
+  const double top_view_y = area.y1 - 15;  // top of the upper view
+  Mapper mf, me;
+  if (!third) {
+    mf = {{x0, top_view_y - front.max.y * k}, k};
+    me = {{x0, top_view_y - h_front * k - gap - edge.max.y * k}, k};
+  } else {
+    me = {{x0, top_view_y - edge.max.y * k}, k};
+    mf = {{x0, top_view_y - h_edge * k - gap - front.max.y * k}, k};
+  }
+  Occupancy occ;
+  occ.set_limits(f);
+  occ.add_box(tb.grown(1));
+  occ.add_box(caution.grown(1));
+  occ.add_box({table_top.x, f.y0, table_top.x + t.width(), notes_top + 2});
+  draw_view(c, occ, front, mf, ViewStyle::normal);
+  draw_view(c, occ, edge, me, ViewStyle::normal);
+  // Centre lines of the holes and of the lever axis.
+  c.pen(Pen::centre);
+  for (const DetailHole& hole : holes) {
+    const double r = hole.diameter / 2 * k + 2;
+    const Pt p = mf(Pt{hole.x, hole.y});
+    c.line({p.x - r, p.y}, {p.x + r, p.y});
+    c.line({p.x, p.y - r}, {p.x, p.y + r});
+    c.text(p + Pt{r * 0.7, r * 0.7}, hole.name, Lettering::body);
+  }
+  c.pen(Pen::narrow);
+  // Overall length and width on the front view, the thickness on the edge view.
+  const double below = front.min.y;
+  place_linear(c, occ, {mf(Pt{front.min.x, below}), mf(Pt{front.max.x, below}), {1, 0},
+                        dim_length((front.max.x - front.min.x) / 1000, u),
+                        {mf(Pt{0, below}).y - 12, mf(Pt{0, below}).y - 20, mf(Pt{0, front.max.y}).y + 10}});
+  place_linear(c, occ, {mf(Pt{front.min.x, front.min.y}), mf(Pt{front.min.x, front.max.y}), {0, 1},
+                        dim_length((front.max.y - front.min.y) / 1000, u),
+                        {-(mf(Pt{front.min.x, 0}).x - 10), -(mf(Pt{front.min.x, 0}).x - 18)}});
+  place_linear(c, occ, {me(Pt{edge.min.x, edge.min.y}), me(Pt{edge.min.x, edge.max.y}), {0, 1},
+                        dim_length(thickness / 1000, u),
+                        {-(me(Pt{edge.min.x, 0}).x - 10), -(me(Pt{edge.min.x, 0}).x - 18)}});
+  c.text({area.x0, area.y1 - 4}, "LEVER  (scale " + chosen.text() + ")", Lettering::heading);
+
+  draw_caution(c, caution);
+  TitleData td = title;
+  td.doc_type = "Detail drawing";
+  td.supplementary = "Lever plate: " + std::to_string(holes.size()) + " holes, " +
+                     (part ? part->material : std::string("steel")) + "; sizes from the solid";
+  td.scale = chosen.text();
+  td.projection_symbol = true;
+  draw_title_block(c, sheet, td);
+  (void)sol;
+  return holes;
+}
+
+}  // namespace bandforge::drawing
