@@ -63,41 +63,89 @@ std::string mm1(double v) {
 
 }  // namespace
 
-std::vector<DetailHole> draw_lever_sheet(Canvas& c, const SheetSize& sheet, const Design& d,
-                                         const Solution& sol, const geom::BrakeModel& model,
-                                         UnitSystem u, const TitleData& title) {
-  const geom::Point2 pivot{d.lever.pivot.x * 1000, d.lever.pivot.y * 1000};
-  const double angle = std::atan2(d.lever.handle.y - d.lever.pivot.y, d.lever.handle.x - d.lever.pivot.x);
-  geom::ProjectOptions only_lever;
-  only_lever.smooth = false;
-  only_lever.kinds = {"lever"};
-  const geom::ProjectedView front = to_frame(geom::project(model, geom::front_view(), only_lever), pivot, angle);
-  // The edge view: looking at the plate's long edge from the lever's +y side (paper right = the
-  // lever axis, up = −z).
+std::vector<std::string> detail_parts(const geom::BrakeModel& model) {
+  std::vector<std::string> out;
+  const std::vector<std::string> kinds = geom::part_kinds(model);
+  for (std::size_t i = 0; i < model.parts().size(); ++i)
+    if (kinds[i] == "lever") out.push_back(model.parts()[i].name);
+  for (std::size_t i = 0; i < model.parts().size(); ++i)
+    if (kinds[i] == "anchor") out.push_back(model.parts()[i].name);
+  return out;
+}
+
+std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, const Design& d,
+                                          const geom::BrakeModel& model, const std::string& part_name,
+                                          UnitSystem u, const TitleData& title) {
+  const geom::PartInfo* part = nullptr;
+  std::string kind;
+  const std::vector<std::string> kinds = geom::part_kinds(model);
+  for (std::size_t i = 0; i < model.parts().size(); ++i) {
+    if (model.parts()[i].name == part_name) {
+      part = &model.parts()[i];
+      kind = kinds[i];
+    }
+  }
+  if (part == nullptr || part->instance_names.empty()) {
+    throw BuildError("drawing: no part " + part_name + " for its detail sheet");
+  }
+  const bool lever = kind == "lever";
+  geom::ProjectOptions only;
+  only.smooth = false;
+  only.kinds = {kind};
+  only.instances = {part->instance_names.front()};
+  const geom::ProjectedView raw = geom::project(model, geom::front_view(), only);
+  // Bores: circles no larger than the largest pin; the outline's corner arcs are larger.
+  const double max_bore = d.band.pin_diameter * 1000 / 2 + 0.01;
+  std::vector<geom::Point2> bores;
+  for (const geom::ViewEdge& e : raw.edges) {
+    if (e.kind != geom::ViewEdge::Kind::arc || e.radius > max_bore) continue;
+    const bool seen = std::any_of(bores.begin(), bores.end(), [&](geom::Point2 q) {
+      return std::hypot(q.x - e.centre.x, q.y - e.centre.y) < 0.01;
+    });
+    if (!seen) bores.push_back(e.centre);
+  }
+  // The part's frame: the lever from its pivot toward the handle; a bracket from its first bore
+  // (lowest x, then y) toward its farthest bore.
+  geom::Point2 origin{d.lever.pivot.x * 1000, d.lever.pivot.y * 1000};
+  double angle = std::atan2(d.lever.handle.y - d.lever.pivot.y, d.lever.handle.x - d.lever.pivot.x);
+  if (!lever) {
+    if (bores.empty()) throw BuildError("drawing: " + part_name + " has no bore to dimension from");
+    origin = *std::min_element(bores.begin(), bores.end(), [](geom::Point2 a, geom::Point2 b) {
+      return a.x < b.x - 1e-6 || (std::abs(a.x - b.x) <= 1e-6 && a.y < b.y);
+    });
+    double far = 0;
+    angle = 0;
+    for (geom::Point2 q : bores) {
+      const double r = std::hypot(q.x - origin.x, q.y - origin.y);
+      if (r > far + 1e-6) {
+        far = r;
+        angle = std::atan2(q.y - origin.y, q.x - origin.x);
+      }
+    }
+  }
+  const geom::ProjectedView front = to_frame(raw, origin, angle);
+  // The edge view: looking at the plate's long edge from the frame's +y side (paper right = the
+  // frame's x axis, up = −z).
   const geom::Vec3 along{std::cos(angle), std::sin(angle), 0}, side{-std::sin(angle), std::cos(angle), 0};
-  const geom::ViewSpec edge_spec{side, along, "lever edge"};
-  const geom::ProjectedView edge_raw = geom::project(model, edge_spec, only_lever);
-  // Its horizontal coordinate is the position along the lever axis measured from the model
-  // origin; shift it so that the pivot is at 0 like the front view.
-  const double shift = pivot.x * along.x + pivot.y * along.y;
+  const geom::ViewSpec edge_spec{side, along, part_name + " edge"};
+  const geom::ProjectedView edge_raw = geom::project(model, edge_spec, only);
+  // Its horizontal coordinate is the position along the frame's x axis from the model origin;
+  // shift it so that the frame origin is at 0 like the front view.
+  const double shift = origin.x * along.x + origin.y * along.y;
   geom::ProjectedView edge = to_frame(edge_raw, {shift, 0}, 0);
   const double thickness = edge.max.y - edge.min.y;
 
-  // Holes: the projected circles of the lever's bores, clustered by centre.
   std::vector<DetailHole> holes;
   for (const geom::ViewEdge& e : front.edges) {
-    if (e.kind != geom::ViewEdge::Kind::arc || !e.visible) continue;
-    if (e.radius > 0.6 * d.lever.width * 1000 / 2) continue;  // not a corner of the outline
+    if (e.kind != geom::ViewEdge::Kind::arc || !e.visible || e.radius > max_bore) continue;
     const bool seen = std::any_of(holes.begin(), holes.end(), [&](const DetailHole& h) {
       return std::hypot(h.x - e.centre.x, h.y - e.centre.y) < 0.01;
     });
     if (!seen) holes.push_back({"", e.centre.x, e.centre.y, 2 * e.radius});
   }
-  // Outline corners are arcs of radius w/2 about the hole centres too; keep the bores only.
-  holes.erase(std::remove_if(holes.begin(), holes.end(),
-                             [&](const DetailHole& h) { return h.diameter > d.lever.width * 1000 * 0.9; }),
-              holes.end());
-  std::sort(holes.begin(), holes.end(), [](const DetailHole& a, const DetailHole& b) { return a.x < b.x; });
+  std::sort(holes.begin(), holes.end(), [](const DetailHole& a, const DetailHole& b) {
+    return a.x < b.x - 1e-6 || (std::abs(a.x - b.x) <= 1e-6 && a.y < b.y);
+  });
   for (std::size_t i = 0; i < holes.size(); ++i) holes[i].name = "H" + std::to_string(i + 1);
 
   c.new_page(sheet.width, sheet.height);
@@ -121,20 +169,18 @@ std::vector<DetailHole> draw_lever_sheet(Canvas& c, const SheetSize& sheet, cons
   const Pt table_top{f.x0 + 6, f.y0 + 6 + table_h};
   draw_table(c, t, table_top);
 
-  const geom::PartInfo* part = nullptr;
-  for (const geom::PartInfo& p : model.parts())
-    if (p.name == "LEVER") part = &p;
   std::vector<std::string> notes = {
-      "Part LEVER, quantity " + std::to_string(part ? part->instance_names.size() : 1) + ", " +
-          (part ? part->material : std::string("steel")) + " plate " + mm1(thickness) + " thick, mass " +
-          (part ? qty(part->mass, Quantity::mass, u, 3) : std::string("—")) + ".",
-      "Hole coordinates in mm from the centre of H1 (the pivot), x along the lever axis toward the handle.",
+      "Part " + part_name + ", quantity " + std::to_string(part->instance_names.size()) + ", " +
+          part->material + " plate " + mm1(thickness) + " thick, mass " + qty(part->mass, Quantity::mass, u, 3) +
+          " each.",
+      lever ? "Hole coordinates in mm from the centre of H1 (the pivot), x along the lever axis toward the handle."
+            : "Hole coordinates in mm from the centre of H1, x toward the farthest hole.",
       pin_fit ? "Holes " + pin_fit->designation().substr(0, pin_fit->designation().find(' ')) + " " +
                     fits::kPinHole + " (" + deviation(pin_fit->hole.upper) + "/" + deviation(pin_fit->hole.lower) +
                     " mm, ISO 286) for " + fits::kPinShaft + " pins."
               : "Holes: fit to be specified (size outside the ISO 286 table carried).",
-      "General tolerances ISO 2768-mK. Remove burrs; break sharp edges 0.5.",
-      "The grip (part GRIP) is welded on at the handle end; see the assembly sheet."};
+      "General tolerances ISO 2768-mK. Remove burrs; break sharp edges 0.5."};
+  if (lever) notes.push_back("The grip (part GRIP) is welded on at the handle end; see the assembly sheet.");
   double y = table_top.y + 6;
   for (auto it = notes.rbegin(); it != notes.rend(); ++it) {
     c.text({f.x0 + 6, y}, *it, Lettering::body);
@@ -158,7 +204,7 @@ std::vector<DetailHole> draw_lever_sheet(Canvas& c, const SheetSize& sheet, cons
       break;
     }
   }
-  if (!fits_any) throw BuildError("drawing: the lever does not fit its detail sheet " + sheet.name);
+  if (!fits_any) throw BuildError("drawing: " + part_name + " does not fit its detail sheet " + sheet.name);
   const double k = chosen.factor();
   const bool third = d.drawing.projection == Projection::third;
   const double x0 = (area.x0 + area.x1) / 2 - (front.min.x + w / 2) * k;
@@ -199,17 +245,17 @@ std::vector<DetailHole> draw_lever_sheet(Canvas& c, const SheetSize& sheet, cons
   place_linear(c, occ, {me(Pt{edge.min.x, edge.min.y}), me(Pt{edge.min.x, edge.max.y}), {0, 1},
                         dim_length(thickness / 1000, u),
                         {-(me(Pt{edge.min.x, 0}).x - 10), -(me(Pt{edge.min.x, 0}).x - 18)}});
-  c.text({area.x0, area.y1 - 4}, "LEVER  (scale " + chosen.text() + ")", Lettering::heading);
+  c.text({area.x0, area.y1 - 4}, part_name + "  (scale " + chosen.text() + ")", Lettering::heading);
 
   draw_caution(c, caution);
   TitleData td = title;
   td.doc_type = "Detail drawing";
-  td.supplementary = "Lever plate: " + std::to_string(holes.size()) + " holes, " +
-                     (part ? part->material : std::string("steel")) + "; sizes from the solid";
+  td.supplementary = std::string(lever ? "Lever plate" : "Frame bracket plate") + " " + part_name + ": " +
+                     std::to_string(holes.size()) + (holes.size() == 1 ? " hole, " : " holes, ") + part->material +
+                     "; sizes from the solid";
   td.scale = chosen.text();
   td.projection_symbol = true;
   draw_title_block(c, sheet, td);
-  (void)sol;
   return holes;
 }
 

@@ -1,8 +1,9 @@
 // Detail sheets of the made parts (issue 10), between the assembly sheet and the calculation
-// sheets. So far: the lever plate, drawn in its own frame (pivot hole at the origin, the lever
-// axis toward the handle along +x) from the solid's exact projection: front view and the edge
-// view below it (first angle; above it in third angle), overall dimensions, and a hole table
-// whose coordinates are read from the projected hole circles, with the ISO 286 fit.
+// sheets. So far the flat plates: the lever, drawn in its own frame (pivot hole at the origin,
+// the lever axis toward the handle along +x), and each frame bracket (its first hole at the
+// origin, x toward its farthest hole), from the solid's exact projection: front view and the
+// edge view below it (first angle; above it in third angle), overall dimensions, and a hole
+// table whose coordinates are read from the projected hole circles, with the ISO 286 fit.
 #pragma once
 
 #include <string>
@@ -23,9 +24,13 @@ struct DetailHole {
   double diameter = 0;
 };
 
-/// Draws the lever's detail sheet on a new page of `c`; returns its holes as tabulated.
-std::vector<DetailHole> draw_lever_sheet(Canvas& c, const SheetSize& sheet, const Design& design,
-                                         const Solution& solution, const geom::BrakeModel& model,
-                                         UnitSystem units, const TitleData& title);
+/// The made parts that get a detail sheet, in sheet order: "LEVER", then each frame-bracket part.
+std::vector<std::string> detail_parts(const geom::BrakeModel& model);
+
+/// Draws the detail sheet of `part` (a name from detail_parts()) on a new page of `c`; returns
+/// its holes as tabulated.
+std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, const Design& design,
+                                          const geom::BrakeModel& model, const std::string& part,
+                                          UnitSystem units, const TitleData& title);
 
 }  // namespace bandforge::drawing

@@ -108,7 +108,7 @@ SheetPlan plan_drawing(const Design& design, const Solution& solution, const geo
   int pages = 0;
   flow(measure, calculation_blocks(design, solution, cut_list, units),
        calc_columns(sheet_size(design.drawing.sheet), caution), &pages);
-  p.plan.detail_sheets = p.plan.assembly ? 1 : 0;
+  p.plan.detail_sheets = p.plan.assembly && model != nullptr ? static_cast<int>(detail_parts(*model).size()) : 0;
   p.plan.pages = (p.plan.assembly ? 1 : 0) + p.plan.detail_sheets + pages;
   return p.plan;
 }
@@ -129,7 +129,9 @@ std::string render_drawing(const Design& design, const Solution& solution,
   int calc_pages = 0;
   const std::vector<Placed> placed = flow(c, blocks, calc_columns(s, caution), &calc_pages);
   // Assembly sheet, the detail sheets of the made parts (so far the lever), the calculation.
-  const int details = plan.assembly ? 1 : 0;
+  const std::vector<std::string> detail_names =
+      plan.assembly && model != nullptr ? detail_parts(*model) : std::vector<std::string>{};
+  const int details = static_cast<int>(detail_names.size());
   const int first_calc = (plan.assembly ? 2 : 1) + details;
   plan.pages = first_calc - 1 + calc_pages;
   plan.detail_sheets = details;
@@ -147,10 +149,13 @@ std::string render_drawing(const Design& design, const Solution& solution,
     t.scale = a.scale.text();
     t.sheet = 1;
     draw_title_block(c, s, t);
-    TitleData lever = t;
-    lever.sheet = 2;
-    for (const DetailHole& h : draw_lever_sheet(c, s, design, solution, *model, units, lever)) {
-      plan.lever_holes.push_back({h.x, h.y, h.diameter});
+    for (std::size_t i = 0; i < detail_names.size(); ++i) {
+      TitleData detail = t;
+      detail.sheet = 2 + static_cast<int>(i);
+      const auto holes = draw_detail_sheet(c, s, design, *model, detail_names[i], units, detail);
+      if (i == 0) {
+        for (const DetailHole& h : holes) plan.lever_holes.push_back({h.x, h.y, h.diameter});
+      }
     }
   }
   for (int p = 0; p < calc_pages; ++p) {

@@ -35,7 +35,7 @@ struct SheetPlan {
   /// Box around all view geometry (front, side and their centre lines) on page 1.
   double views_box[4] = {0, 0, 0, 0};
   int pages = 0;            ///< total pages in the PDF
-  int detail_sheets = 0;    ///< detail sheets after the assembly sheet (so far: the lever)
+  int detail_sheets = 0;    ///< detail sheets after the assembly sheet (the lever, each bracket)
   /// The lever sheet's hole table: x, y (lever frame, from the pivot hole) and diameter [mm].
   std::vector<std::array<double, 3>> lever_holes;
   double hlr_ms = 0;        ///< hidden-line removal time of the two main views [ms]

@@ -226,6 +226,11 @@ ProjectedView project(const BrakeModel& model, const ViewSpec& view, const Proje
           std::find(options.kinds.begin(), options.kinds.end(), kind) == options.kinds.end()) {
         continue;
       }
+      if (!options.instances.empty() &&
+          std::find(options.instances.begin(), options.instances.end(), m.instances.at(placed.instance).name) ==
+              options.instances.end()) {
+        continue;
+      }
       builder.Add(all, placed.shape);
       ++added;
     }

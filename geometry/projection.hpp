@@ -51,6 +51,8 @@ struct ProjectOptions {
   bool smooth = true;  ///< also return visible smooth (tangent) edges; seams are always dropped
   /// Only instances whose part kind is listed ("lever", "grip", "pin", ...); empty = all.
   std::vector<std::string> kinds;
+  /// Only the instances of these names (PartInfo::instance_names); empty = all.
+  std::vector<std::string> instances;
 };
 
 struct ProjectedView {

@@ -742,8 +742,10 @@ TEST(DrawingExamples, EveryExampleIsDrawn) {
     EXPECT_NE(page1.find("Assembly drawing"), std::string::npos);
     EXPECT_NE(page1.find(dia), std::string::npos) << dia;
     // Then the detail sheets of the made parts (issue 10: the lever so far), then the calculation.
-    EXPECT_EQ(d->plan.detail_sheets, 1);
-    EXPECT_NE(text_of(d->pdf, 2).find("Detail drawing"), std::string::npos);
+    EXPECT_GE(d->plan.detail_sheets, 2);  // the lever and at least one frame bracket
+    for (int page = 2; page < 2 + d->plan.detail_sheets; ++page) {
+      EXPECT_NE(text_of(d->pdf, page).find("Detail drawing"), std::string::npos) << "page " << page;
+    }
     EXPECT_NE(text_of(d->pdf, 2 + d->plan.detail_sheets).find("Calculation sheet"), std::string::npos);
     // The drum outline is where the plan says, at the sheet scale.
     const Gray g = render(d->pdf, 1, 100);
@@ -915,6 +917,33 @@ TEST(DrawingDetail, LeverHoleTableMatchesThePinsOfTheDesign) {
     for (const auto& r : rows) EXPECT_NEAR(r[2], d->design.band.pin_diameter * 1000, 0.05);
     EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
   }
+}
+
+
+// A frame pin beside the pivot shares one bracket with it (src/hardware.cpp): its detail sheet's
+// hole table gives the distance between the two pin centres of the design file, 30 mm apart in x
+// and y: √(30² + 30²) = 42.4 mm.
+TEST(DrawingDetail, SharedBracketHoleTableMatchesThePins) {
+  std::string text = slurp(kExample);
+  const std::string from = "end_a = { mount = \"frame\", at = [\"-60 mm\", \"-300 mm\"] }";
+  const auto at = text.find(from);
+  ASSERT_NE(at, std::string::npos);
+  text.replace(at, from.size(), "end_a = { mount = \"frame\", at = [\"-80 mm\", \"-330 mm\"] }");
+  const fs::path file = scratch_root() / "shared-bracket.toml";
+  std::ofstream(file) << text;
+  auto d = draw(file.string(), "shared-bracket.pdf");
+  ASSERT_EQ(d->solution.hardware.brackets.size(), 1u);
+  ASSERT_EQ(d->solution.hardware.brackets[0].holes.size(), 2u);
+  ASSERT_EQ(d->plan.detail_sheets, 2);
+  const std::string page = text_of(d->pdf, 3, true);
+  EXPECT_NE(page.find("BRACKET-A-PIVOT"), std::string::npos);
+  std::vector<std::array<double, 2>> rows;
+  const std::regex row(R"(H(\d+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+Ø16.0 H11)");
+  for (auto it = std::sregex_iterator(page.begin(), page.end(), row); it != std::sregex_iterator(); ++it) {
+    rows.push_back({std::stod((*it)[2]), std::stod((*it)[3])});
+  }
+  ASSERT_EQ(rows.size(), 2u) << page;
+  EXPECT_NEAR(std::hypot(rows[1][0] - rows[0][0], rows[1][1] - rows[0][1]), std::hypot(30.0, 30.0), 0.1);
 }
 
 }  // namespace
