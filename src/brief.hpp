@@ -86,6 +86,9 @@ struct Brief {
 Brief read_brief_file(const std::string& path);
 Brief read_brief_text(std::string_view text, const std::string& name);
 
+/// Even–odd point-in-polygon test (boundary points may fall either way).
+bool polygon_contains(const std::vector<Vec2>& corners, Vec2 p);
+
 /// Point-in-region: inside or on the boundary of a polygon (within `tol`), on a segment, or at
 /// the point.
 bool region_contains(const Region& r, Vec2 p, double tol = 1e-9);

@@ -388,17 +388,6 @@ Vec2 closest_on_segment(Vec2 p, Vec2 a, Vec2 b) {
   return {a.x + u * ab.x, a.y + u * ab.y};
 }
 
-bool inside_polygon(const std::vector<Vec2>& c, Vec2 p) {
-  bool in = false;  // even–odd rule
-  for (std::size_t i = 0, j = c.size() - 1; i < c.size(); j = i++) {
-    if ((c[i].y > p.y) != (c[j].y > p.y) &&
-        p.x < (c[j].x - c[i].x) * (p.y - c[i].y) / (c[j].y - c[i].y) + c[i].x) {
-      in = !in;
-    }
-  }
-  return in;
-}
-
 }  // namespace
 
 Brief read_brief_text(std::string_view text, const std::string& name) {
@@ -421,11 +410,22 @@ Brief read_brief_file(const std::string& path) {
   return read_brief_text(read_all(in, path), path);
 }
 
+bool polygon_contains(const std::vector<Vec2>& c, Vec2 p) {
+  bool in = false;  // even–odd rule
+  for (std::size_t i = 0, j = c.size() - 1; i < c.size(); j = i++) {
+    if ((c[i].y > p.y) != (c[j].y > p.y) &&
+        p.x < (c[j].x - c[i].x) * (p.y - c[i].y) / (c[j].y - c[i].y) + c[i].x) {
+      in = !in;
+    }
+  }
+  return in;
+}
+
 Vec2 region_closest(const Region& r, Vec2 p) {
   const auto& c = r.corners;
   if (c.empty()) return p;
   if (c.size() == 1) return c[0];
-  if (c.size() >= 3 && inside_polygon(c, p)) return p;
+  if (c.size() >= 3 && polygon_contains(c, p)) return p;
   Vec2 best = c[0];
   double best_d = 1e300;
   const std::size_t edges = c.size() == 2 ? 1 : c.size();

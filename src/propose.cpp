@@ -46,17 +46,6 @@ std::string fmt(const char* f, double v) {
 
 // ---- regions --------------------------------------------------------------------------------
 
-bool inside_polygon(const std::vector<Vec2>& c, Vec2 p) {
-  bool in = false;
-  for (std::size_t i = 0, j = c.size() - 1; i < c.size(); j = i++) {
-    if ((c[i].y > p.y) != (c[j].y > p.y) &&
-        p.x < (c[j].x - c[i].x) * (p.y - c[i].y) / (c[j].y - c[i].y) + c[i].x) {
-      in = !in;
-    }
-  }
-  return in;
-}
-
 double segment_distance(Vec2 p, Vec2 a, Vec2 b) {
   const Vec2 ab = b - a;
   const double len2 = ab.x * ab.x + ab.y * ab.y;
@@ -74,7 +63,7 @@ bool segments_cross(Vec2 a, Vec2 b, Vec2 c, Vec2 d) {
 
 /// Distance from a segment (grown by nothing) to a polygon: 0 when they touch or overlap.
 double segment_to_polygon(Vec2 a, Vec2 b, const std::vector<Vec2>& poly) {
-  if (inside_polygon(poly, a) || inside_polygon(poly, b)) return 0;
+  if (polygon_contains(poly, a) || polygon_contains(poly, b)) return 0;
   double d = 1e300;
   for (std::size_t i = 0; i < poly.size(); ++i) {
     const Vec2 p = poly[i], q = poly[(i + 1) % poly.size()];
@@ -109,7 +98,7 @@ std::vector<Vec2> sample(const Region& r, double spacing) {
     for (int j = 1; j < ny; ++j) {
       for (int i = 1; i < nx; ++i) {
         const Vec2 p{x0 + (x1 - x0) * i / nx, y0 + (y1 - y0) * j / ny};
-        if (inside_polygon(c, p)) out.push_back(p);
+        if (polygon_contains(c, p)) out.push_back(p);
       }
     }
   }
@@ -445,7 +434,7 @@ class Search {
       // first spares the exact distances for what is plainly far away.
       for (Vec2 pin : {L.a.pin, L.b.pin, d.lever.pivot}) {
         if (!box.near(pin, pin, eye + wall)) continue;
-        if (inside_polygon(poly, pin)) return false;
+        if (polygon_contains(poly, pin)) return false;
         for (std::size_t i = 0; i < poly.size(); ++i)
           if (segment_distance(pin, poly[i], poly[(i + 1) % poly.size()]) < eye + wall) return false;
       }
