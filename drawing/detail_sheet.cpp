@@ -166,7 +166,11 @@ std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, con
     t.rows.push_back({h.name, mm1(h.x), mm1(h.y), size});
   }
   const double table_h = table_height(c, t);
-  const Pt table_top{f.x0 + 6, f.y0 + 6 + table_h};
+  // Beside the title block on landscape sheets; above the caution on A4 portrait, where the title
+  // block spans the drawing space.
+  const bool beside = tb.x0 - f.x0 >= 150;
+  const double base = beside ? f.y0 + 6 : caution.y1 + 6;
+  const Pt table_top{f.x0 + 6, base + table_h};
   draw_table(c, t, table_top);
 
   std::vector<std::string> notes = {
@@ -221,7 +225,8 @@ std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, con
   occ.set_limits(f);
   occ.add_box(tb.grown(1));
   occ.add_box(caution.grown(1));
-  occ.add_box({table_top.x, f.y0, table_top.x + t.width(), notes_top + 2});
+  occ.add_box({table_top.x, beside ? f.y0 : base - 2, std::max(table_top.x + t.width(), beside ? tb.x0 - 2 : f.x1),
+               notes_top + 2});
   draw_view(c, occ, front, mf, ViewStyle::normal);
   draw_view(c, occ, edge, me, ViewStyle::normal);
   // Centre lines of the holes and of the lever axis.

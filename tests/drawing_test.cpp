@@ -946,5 +946,22 @@ TEST(DrawingDetail, SharedBracketHoleTableMatchesThePins) {
   EXPECT_NEAR(std::hypot(rows[1][0] - rows[0][0], rows[1][1] - rows[0][1]), std::hypot(30.0, 30.0), 0.1);
 }
 
+
+// No text over other text on any detail sheet, on A3, in US units and on A4 portrait.
+TEST(DrawingDetail, NoTwoWordsOverlapOnTheDetailSheets) {
+  const auto us = draw(kExample, "detail-overlap-us.pdf", UnitSystem::us);
+  const auto a4 = draw(kExample, "detail-overlap-a4.pdf", UnitSystem::si, "A4");
+  for (const Drawn* d : std::vector<const Drawn*>{&example(), us.get(), a4.get()}) {
+    SCOPED_TRACE(d->pdf.string());
+    ASSERT_GE(d->plan.detail_sheets, 2);
+    for (int page = 2; page < 2 + d->plan.detail_sheets; ++page) {
+      SCOPED_TRACE("page " + std::to_string(page));
+      const auto words = cap_boxes(d->pdf, page);
+      ASSERT_GT(words.size(), 30u);
+      expect_no_two_words_overlap(words);
+    }
+  }
+}
+
 }  // namespace
 }  // namespace bandforge::drawing
