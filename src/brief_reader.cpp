@@ -223,17 +223,7 @@ class BriefReader : public schema::Reader {
     }
     b_.rotation = turn(s, "rotation", "the load's rotation to be braked, seen from the front: "
                                       "rotation = \"cw\" or \"ccw\"");
-    Drum& dm = b_.drum_material;
-    dm.material = string(s, "material").value_or("cast-iron");
-    const DrumMaterial* m = find_drum_material(dm.material);
-    if (m == nullptr) {
-      std::vector<std::string> keys;
-      for (const auto& x : drum_materials()) keys.push_back(in_quotes(x.key));
-      bad_value(s, "material", "unknown drum material; valid: " + join(keys));
-    }
-    dm.density = m->density;
-    dm.specific_heat = m->specific_heat;
-    dm.material_source = "density: " + m->density_source + "; specific heat: " + m->specific_heat_source;
+    read_drum_material(s, b_.drum_material);
   }
 
   void read_load(const Section& s) {

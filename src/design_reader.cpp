@@ -102,17 +102,7 @@ class DesignReader : public schema::Reader {
     }
     dr.rotation = turn(s, "rotation", "the load's rotation to be braked, seen from the front: "
                                       "rotation = \"cw\" or \"ccw\"");
-    dr.material = string(s, "material").value_or("cast-iron");
-    const DrumMaterial* m = find_drum_material(dr.material);
-    if (m == nullptr) {
-      std::vector<std::string> keys;
-      for (const auto& dm : drum_materials()) keys.push_back(in_quotes(dm.key));
-      bad_value(s, "material", "unknown drum material; valid: " + join(keys));
-    }
-    dr.density = m->density;
-    dr.specific_heat = m->specific_heat;
-    dr.material_source =
-        "density: " + m->density_source + "; specific heat: " + m->specific_heat_source;
+    read_drum_material(s, dr);
   }
 
 

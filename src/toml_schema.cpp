@@ -438,4 +438,17 @@ void Reader::read_duty(const Section& s, Duty& du) {
   if (auto t = quantity(s, "ambient", Quantity::temperature)) du.ambient = *t;
 }
 
+void Reader::read_drum_material(const Section& s, Drum& dr) {
+  dr.material = string(s, "material").value_or("cast-iron");
+  const DrumMaterial* m = find_drum_material(dr.material);
+  if (m == nullptr) {
+    std::vector<std::string> keys;
+    for (const auto& dm : drum_materials()) keys.push_back(in_quotes(dm.key));
+    bad_value(s, "material", "unknown drum material; valid: " + join(keys));
+  }
+  dr.density = m->density;
+  dr.specific_heat = m->specific_heat;
+  dr.material_source = "density: " + m->density_source + "; specific heat: " + m->specific_heat_source;
+}
+
 }  // namespace bandforge::schema

@@ -69,6 +69,8 @@ class Reader {
   void read_project(const Section& s, Project& p);
   void read_lining(const Section& s, Lining& li);
   void read_duty(const Section& s, Duty& du);
+  /// [drum] material (default "cast-iron"): the key, density, specific heat and their sources.
+  void read_drum_material(const Section& s, Drum& dr);
 
  protected:
   std::string_view text_;
