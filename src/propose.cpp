@@ -458,11 +458,9 @@ class Search {
     p.plate = static_cast<int>(plates_.size()) - 1;
     Eval ref = evaluate(p, d);
     ++evaluations;
-    if (!ref.geometry) {
-      // The smallest pin may be what fails the screen (lever width); try the reference plate
-      // with the largest pin before giving up.
-      return ref;
-    }
+    // A layout whose reference (the strongest band, the smallest pin, the largest plate) fails
+    // the layout rules or the screen is not pursued with other stock.
+    if (!ref.geometry) return ref;
     const double P = ref.tension;
     const double r = b_.drum_diameters[static_cast<std::size_t>(p.drum)] / 2;
     const double sigma = b_.stock.band_allowable_stress;
@@ -649,7 +647,9 @@ ChunkResult run_chunk(const Search& s, const Samples& sm, const Chunk& c, std::s
       Figures f = ref.fig;
       f.force = force;
       f.travel = travel;
-      f.size = std::max(ref.fig.size - dist(p.handle, p.pivot) + arm, arm);  // approximate
+      f.size = arm;
+      if (p.mount_a == Mount::lever) f.size = std::max(f.size, dist(p.a, p.pivot));
+      if (p.mount_b == Mount::lever) f.size = std::max(f.size, dist(p.b, p.pivot));
       Eval tmp;
       tmp.fig = f;
       const Key k = s.key_of(tmp);
