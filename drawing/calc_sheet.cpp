@@ -779,6 +779,15 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
       lines.push_back("Drum bore Ø" + dim_length(d.drum.bore, UnitSystem::si) +
                       " mm: outside the ISO 286 range bandforge carries (3–120 mm); specify the fit by hand.");
     }
+    if (const auto g = fits::general_linear(d.drum.diameter, 'm')) {
+      char buf[200];
+      std::snprintf(buf, sizeof buf,
+                    "Drum friction surface Ø%g mm: ±%.1f mm (ISO 2768-1 class m); total runout 0.1 mm to "
+                    "the bore axis (common practice, no source: a surface that runs true keeps the "
+                    "lining pressure even over the wrap).",
+                    d.drum.diameter * 1000, *g * 1000);
+      lines.push_back(buf);
+    }
     lines.push_back("Limit deviations from ISO 286-1:2010 (standard tolerance grades) and ISO 286-2:2010 "
                     "(fundamental deviations), always in mm. Sizes without "
                     "their own tolerance: ISO 2768-1 class m, geometry ISO 2768-2 class K. Drum friction "
