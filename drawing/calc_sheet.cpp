@@ -780,7 +780,7 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
                       " mm: outside the ISO 286 range bandforge carries (3–120 mm); specify the fit by hand.");
     }
     if (const auto g = fits::general_linear(d.drum.diameter, 'm')) {
-      char buf[200];
+      char buf[512];
       std::snprintf(buf, sizeof buf,
                     "Drum friction surface Ø%g mm: ±%.1f mm (ISO 2768-1 class m); total runout 0.1 mm to "
                     "the bore axis (common practice, no source: a surface that runs true keeps the "

@@ -785,7 +785,10 @@ TEST(DrawingFits, LimitDeviationsOnTheCalculationSheetAreIso286) {
   EXPECT_NE(hoist.find("Ø16 H11/c11: hole H11 +0.110/0 mm, shaft c11 -0.095/-0.205 mm"), std::string::npos);
   EXPECT_NE(hoist.find("Ø60 H7/k6: hole H7 +0.030/0 mm, shaft k6 +0.021/+0.002 mm"), std::string::npos);
   // ISO 2768-1 class m, over 120 up to 400 mm: ±0.5 mm (REFERENCE §5.8).
-  EXPECT_NE(hoist.find("Drum friction surface Ø400 mm: ±0.5 mm (ISO 2768-1 class m)"), std::string::npos);
+  EXPECT_NE(hoist.find("Drum friction surface Ø400 mm: ±0.5 mm (ISO 2768-1 class m); total runout 0.1 mm to "
+                       "the bore axis"),
+            std::string::npos);
+  EXPECT_NE(hoist.find("even over the wrap)."), std::string::npos);  // the whole sentence, not cut
   const std::string page1 = squeezed(text_of(example().pdf, 1));
   EXPECT_NE(page1.find("pins Ø16 H11/c11"), std::string::npos) << page1;
   EXPECT_NE(page1.find("ISO 2768-mK"), std::string::npos);
