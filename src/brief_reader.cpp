@@ -4,13 +4,9 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
-#include <filesystem>
-#include <fstream>
-#include <iostream>
 #include <numbers>
 
 #include "src/brief.hpp"
-#include "src/materials.hpp"
 #include "src/toml_schema.hpp"
 
 namespace bandforge {
@@ -360,17 +356,6 @@ class BriefReader : public schema::Reader {
   }
 };
 
-std::string read_all(std::istream& in, const std::string& name) {
-  std::string text;
-  std::array<char, 65536> buf;
-  while (in.read(buf.data(), buf.size()) || in.gcount() > 0) {
-    text.append(buf.data(), static_cast<std::size_t>(in.gcount()));
-    if (text.size() > kMaxBriefBytes) break;
-  }
-  if (in.bad()) throw IoError("cannot read brief " + name + ": read error");
-  return text;
-}
-
 Vec2 closest_on_segment(Vec2 p, Vec2 a, Vec2 b) {
   const Vec2 ab{b.x - a.x, b.y - a.y};
   const double len2 = ab.x * ab.x + ab.y * ab.y;
@@ -389,15 +374,7 @@ Brief read_brief_text(std::string_view text, const std::string& name) {
 }
 
 Brief read_brief_file(const std::string& path) {
-  namespace fs = std::filesystem;
-  if (path == "-") return read_brief_text(read_all(std::cin, "<stdin>"), "<stdin>");
-  std::error_code ec;
-  const fs::file_status st = fs::status(path, ec);
-  if (ec || !fs::exists(st)) throw IoError("cannot read brief " + path + ": no such file");
-  if (fs::is_directory(st)) throw IoError("cannot read brief " + path + ": it is a directory");
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw IoError("cannot read brief " + path + ": permission denied or unreadable");
-  return read_brief_text(read_all(in, path), path);
+  return read_brief_text(schema::read_source(path, "brief", kMaxBriefBytes), path == "-" ? "<stdin>" : path);
 }
 
 bool polygon_contains(const std::vector<Vec2>& c, Vec2 p) {

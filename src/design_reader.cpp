@@ -6,10 +6,7 @@
 #include <array>
 #include <cmath>
 #include <cstdio>
-#include <filesystem>
-#include <fstream>
 #include <initializer_list>
-#include <iostream>
 #include <numbers>
 #include <optional>
 #include <vector>
@@ -350,34 +347,8 @@ Design read_design_text(std::string_view text, const std::string& name) {
   return DesignReader(text, name).read();
 }
 
-namespace {
-
-// The whole of standard input, up to one byte past the size limit (read_design_text reports it).
-std::string read_all(std::istream& in, const std::string& name) {
-  std::string text;
-  std::array<char, 65536> buf;
-  while (in.read(buf.data(), buf.size()) || in.gcount() > 0) {
-    text.append(buf.data(), static_cast<std::size_t>(in.gcount()));
-    if (text.size() > kMaxFileBytes) break;
-  }
-  if (in.bad()) throw IoError("cannot read design file " + name + ": read error");
-  return text;
-}
-
-}  // namespace
-
 Design read_design_file(const std::string& path) {
-  namespace fs = std::filesystem;
-  if (path == kStdinPath) return read_design_text(read_all(std::cin, kStdinName), kStdinName);
-  std::error_code ec;
-  const fs::file_status st = fs::status(path, ec);
-  if (ec || !fs::exists(st)) throw IoError("cannot read design file " + path + ": no such file");
-  if (fs::is_directory(st)) {
-    throw IoError("cannot read design file " + path + ": it is a directory");
-  }
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw IoError("cannot read design file " + path + ": permission denied or unreadable");
-  return read_design_text(read_all(in, path), path);
+  return read_design_text(schema::read_source(path, "design file", kMaxFileBytes), design_display_name(path));
 }
 
 std::string starter_design() {

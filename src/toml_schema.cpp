@@ -2,6 +2,9 @@
 
 #include <array>
 #include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <iostream>
 #include <numbers>
 
 #include "src/materials.hpp"
@@ -145,6 +148,30 @@ bool has_control_chars(std::string_view s) {
                      [](char c) { return static_cast<unsigned char>(c) < 0x20 || c == 0x7f; });
 }
 
+
+std::string read_source(const std::string& path, const std::string& what, std::size_t max_bytes) {
+  namespace fs = std::filesystem;
+  const bool stdin_path = path == "-";
+  const std::string name = stdin_path ? "<stdin>" : path;
+  const auto read_all = [&](std::istream& in) {
+    std::string text;
+    std::array<char, 65536> buf;
+    while (in.read(buf.data(), buf.size()) || in.gcount() > 0) {
+      text.append(buf.data(), static_cast<std::size_t>(in.gcount()));
+      if (text.size() > max_bytes) break;
+    }
+    if (in.bad()) throw IoError("cannot read " + what + " " + name + ": read error");
+    return text;
+  };
+  if (stdin_path) return read_all(std::cin);
+  std::error_code ec;
+  const fs::file_status st = fs::status(path, ec);
+  if (ec || !fs::exists(st)) throw IoError("cannot read " + what + " " + path + ": no such file");
+  if (fs::is_directory(st)) throw IoError("cannot read " + what + " " + path + ": it is a directory");
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw IoError("cannot read " + what + " " + path + ": permission denied or unreadable");
+  return read_all(in);
+}
 
 toml::table Reader::parse_root(const std::string& what) const {
   // toml++ 3.3 recurses once per dotted-key segment and overflows the stack at ~40 000 segments

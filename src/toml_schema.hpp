@@ -37,6 +37,11 @@ bool is_safe_stem(std::string_view s);
 bool is_iso_date(std::string_view s);
 bool has_control_chars(std::string_view s);
 
+/// The text of `path` ("-": standard input), read to at most one byte past `max_bytes` (the
+/// caller reports the size). `what` names the file in messages ("design file", "brief").
+/// Throws IoError (exit 4): no such file, a directory, unreadable.
+std::string read_source(const std::string& path, const std::string& what, std::size_t max_bytes);
+
 /// One table of the file ([band], or band.end_a) and the dotted path used for its keys.
 struct Section {
   const toml::table* table = nullptr;  // nullptr: the section is absent
