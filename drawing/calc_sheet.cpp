@@ -751,11 +751,7 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
   {
     // Fits and tolerances (ISO 286 deviations always in mm, as the standard gives them).
     std::vector<std::string> lines;
-    auto dev = [](double v) {
-      char buf[32];
-      std::snprintf(buf, sizeof buf, "%+.3f", v * 1000.0);
-      return v == 0 ? std::string("0") : std::string(buf);
-    };
+    const auto dev = deviation_mm;
     auto describe = [&](const char* what, const fits::Fit& f, const char* why) {
       lines.push_back(std::string(what) + " " + f.designation() + ": hole " + f.hole_code + " " +
                       dev(f.hole.upper) + "/" + dev(f.hole.lower) + " mm, shaft " + f.shaft_code + " " +

@@ -48,13 +48,6 @@ geom::ProjectedView to_frame(const geom::ProjectedView& v, geom::Point2 origin, 
   return out;
 }
 
-std::string deviation(double metres) {
-  if (metres == 0) return "0";
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%+.3f", metres * 1000.0);
-  return buf;
-}
-
 std::string mm1(double v) {
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.1f", std::abs(v) < 0.05 ? 0.0 : v);
@@ -180,7 +173,7 @@ std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, con
       lever ? "Hole coordinates in mm from the centre of H1 (the pivot), x along the lever axis toward the handle."
             : "Hole coordinates in mm from the centre of H1, x toward the farthest hole.",
       pin_fit ? "Holes " + pin_fit->designation().substr(0, pin_fit->designation().find(' ')) + " " +
-                    fits::kPinHole + " (" + deviation(pin_fit->hole.upper) + "/" + deviation(pin_fit->hole.lower) +
+                    fits::kPinHole + " (" + deviation_mm(pin_fit->hole.upper) + "/" + deviation_mm(pin_fit->hole.lower) +
                     " mm, ISO 286) for " + fits::kPinShaft + " pins."
               : "Holes: fit to be specified (size outside the ISO 286 table carried).",
       "General tolerances ISO 2768-mK. Remove burrs; break sharp edges 0.5."};

@@ -54,4 +54,11 @@ std::string degrees(double rad, int decimals) {
   return buf;
 }
 
+std::string deviation_mm(double metres) {
+  if (metres == 0) return "0";
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%+.3f", metres * 1000.0);
+  return buf;
+}
+
 }  // namespace bandforge::drawing

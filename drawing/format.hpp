@@ -22,6 +22,10 @@ std::string qty_value(double si, Quantity q, UnitSystem u, int sig = 4);
 /// 0.01 (0.001 below 1 in).
 std::string dim_length(double metres, UnitSystem u);
 
+/// An ISO 286 limit deviation from metres, in mm as the standard writes it: "+0.110", "-0.095",
+/// "0" (always mm, whatever the display units).
+std::string deviation_mm(double metres);
+
 /// An angle from radians in degrees with one decimal and the degree sign: "245.3°".
 std::string degrees(double rad, int decimals = 1);
 

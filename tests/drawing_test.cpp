@@ -920,6 +920,9 @@ TEST(DrawingDetail, LeverHoleTableMatchesThePinsOfTheDesign) {
       EXPECT_NEAR(from_table[i], from_design[i], 0.1) << "distance " << i;  // printed to 0.1 mm
     }
     for (const auto& r : rows) EXPECT_NEAR(r[2], d->design.band.pin_diameter * 1000, 0.05);
+    // The examples' pins (Ø12, Ø14, Ø16) are all in ISO 286's 10–18 mm range: H11 = +0.110/0
+    // (REFERENCE §5.8).
+    EXPECT_NE(page.find("H11 (+0.110/0 mm, ISO 286)"), std::string::npos) << page;
     EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
   }
 }
