@@ -174,15 +174,13 @@ TEST(Regions, ContainAndClosest) {
 
 // ---- the search against outside values ------------------------------------------------------
 
-// Every position fixed but the handle, which may be anywhere on a segment along the lever line:
-// the lowest force is the capstan relation's slack tension times the lever end's arm over the
-// longest handle arm, for the better band sense (REFERENCE §1.1 P1/P2 = e^(fφ), T = (P1 − P2)·r;
-// §1.6 simple brake F = P·m/L; §1.8 tangent construction for φ and m).
-TEST(ProposeSearch, FindsTheHandOptimumOfASimpleBrake) {
-  const std::string text = std::string(kSmall) + R"(frame_pin = [["-60 mm", "-300 mm"]]
-lever_pins = [["60 mm", "-300 mm"]]
-pivot = [["-110 mm", "-300 mm"]]
+namespace {
 
+/// kSmall narrowed to a simple brake: the frame pin and the pivot fixed, the lever pin in
+/// `lever_pins`, one size of each stock, one proposal.
+std::string simple_brief(const std::string& lever_pins) {
+  return std::string(kSmall) + "frame_pin = [[\"-60 mm\", \"-300 mm\"]]\nlever_pins = " + lever_pins +
+         "\npivot = [[\"-110 mm\", \"-300 mm\"]]\n" + R"(
 [stock]
 band_width = ["80 mm"]
 band_thickness = ["3 mm"]
@@ -194,6 +192,16 @@ lever_thickness = ["16 mm"]
 kinds = ["simple"]
 proposals = 1
 )";
+}
+
+}  // namespace
+
+// Every position fixed but the handle, which may be anywhere on a segment along the lever line:
+// the lowest force is the capstan relation's slack tension times the lever end's arm over the
+// longest handle arm, for the better band sense (REFERENCE §1.1 P1/P2 = e^(fφ), T = (P1 − P2)·r;
+// §1.6 simple brake F = P·m/L; §1.8 tangent construction for φ and m).
+TEST(ProposeSearch, FindsTheHandOptimumOfASimpleBrake) {
+  const std::string text = simple_brief(R"([["60 mm", "-300 mm"]])");
   const bf::Brief brief = bf::read_brief_text(text, "hand.toml");
   const bf::ProposeResult r = bf::propose(brief, 2);
   ASSERT_EQ(r.proposals.size(), 1u) << r.infeasible;
@@ -247,21 +255,8 @@ bool feasible(const bf::Design& d, double max_force, double max_travel, double* 
 // segment at 1/40 of its length, both band senses), each point through solve() and the hardware
 // plan: none may beat the proposal by more than the grid's resolution.
 TEST(ProposeSearch, NoGridPointBeatsTheProposal) {
-  const std::string text = std::string(kSmall) + R"(frame_pin = [["-60 mm", "-300 mm"]]
-lever_pins = [["20 mm", "-330 mm"], ["100 mm", "-330 mm"], ["100 mm", "-270 mm"], ["20 mm", "-270 mm"]]
-pivot = [["-110 mm", "-300 mm"]]
-
-[stock]
-band_width = ["80 mm"]
-band_thickness = ["3 mm"]
-pin_diameter = ["16 mm"]
-lever_width = ["50 mm"]
-lever_thickness = ["16 mm"]
-
-[goal]
-kinds = ["simple"]
-proposals = 1
-)";
+  const std::string text =
+      simple_brief(R"([["20 mm", "-330 mm"], ["100 mm", "-330 mm"], ["100 mm", "-270 mm"], ["20 mm", "-270 mm"]])");
   std::string brief_text = replaced(text, "max_force = \"300 N\"", "max_force = \"300 N\"\nmax_travel = \"40 mm\"");
   brief_text = replaced(brief_text, "handle = [[\"300 mm\", \"-300 mm\"], [\"700 mm\", \"-300 mm\"]]",
                         "handle = [[\"350 mm\", \"-450 mm\"], [\"750 mm\", \"-150 mm\"]]");
