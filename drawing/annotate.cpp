@@ -89,6 +89,39 @@ bool Occupancy::segment_clear(Pt a, Pt b) const {
   return true;
 }
 
+std::vector<unsigned char> Occupancy::coverage(const Box& area, double cell, int& cols, int& rows) const {
+  cols = std::max(1, static_cast<int>(std::ceil(area.width() / cell)));
+  rows = std::max(1, static_cast<int>(std::ceil(area.height() / cell)));
+  std::vector<unsigned char> grid(static_cast<size_t>(cols) * static_cast<size_t>(rows), 0);
+  auto index = [&](double v, double lo, int n) { return std::clamp(static_cast<int>(std::floor((v - lo) / cell)), 0, n - 1); };
+  auto mark = [&](double x0, double y0, double x1, double y1) {
+    if (x1 < area.x0 || y1 < area.y0 || x0 > area.x1 || y0 > area.y1) return;
+    const int i0 = index(x0, area.x0, cols), i1 = index(x1, area.x0, cols);
+    const int j0 = index(y0, area.y0, rows), j1 = index(y1, area.y0, rows);
+    for (int j = j0; j <= j1; ++j)
+      for (int i = i0; i <= i1; ++i) grid[static_cast<size_t>(j) * static_cast<size_t>(cols) + static_cast<size_t>(i)] = 1;
+  };
+  for (const Quad& q : quads_) {
+    double x0 = 1e300, y0 = 1e300, x1 = -1e300, y1 = -1e300;
+    for (const Pt& p : q.p) {
+      x0 = std::min(x0, p.x);
+      y0 = std::min(y0, p.y);
+      x1 = std::max(x1, p.x);
+      y1 = std::max(y1, p.y);
+    }
+    mark(x0, y0, x1, y1);
+  }
+  // Samples a quarter cell apart: a segment cannot cross a cell's middle unseen.
+  for (const Seg& s : segs_) {
+    const int n = std::max(1, static_cast<int>(std::ceil(norm(s.b - s.a) / (cell / 4))));
+    for (int k = 0; k <= n; ++k) {
+      const Pt p = s.a + (s.b - s.a) * (static_cast<double>(k) / n);
+      mark(p.x, p.y, p.x, p.y);
+    }
+  }
+  return grid;
+}
+
 Quad text_quad(const Canvas& c, Pt at, const std::string& s, double h, double angle) {
   const double w = c.text_width(s, h);
   const Pt t{std::cos(angle), std::sin(angle)}, up = perp(t);

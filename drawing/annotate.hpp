@@ -33,6 +33,10 @@ class Occupancy {
   bool free(const Box& b) const { return free(Quad::of(b)); }
   /// True when the segment crosses no recorded area (a leader or dimension line through text).
   bool segment_clear(Pt a, Pt b) const;
+  /// A coarse map for finding room for a large box: cells of `cell` mm over `area`, row by row
+  /// from the lower-left, 1 where a recorded area's bounding box or a segment reaches the cell.
+  /// A box over 0-cells only is very likely free: confirm with free().
+  std::vector<unsigned char> coverage(const Box& area, double cell, int& cols, int& rows) const;
 
  private:
   struct Seg {

@@ -2,12 +2,14 @@
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 #include "drawing/format.hpp"
 #include "drawing/page1.hpp"
 #include "drawing/page1_tables.hpp"
 #include "drawing/table.hpp"
 #include "drawing/text_fit.hpp"
+#include "src/standard_parts.hpp"
 #include "src/errors.hpp"
 
 namespace bandforge::drawing {
@@ -27,10 +29,17 @@ double notes_lines(const Canvas& c, const std::vector<std::string>& notes, doubl
   return n;
 }
 
+// The note that stands for the results table where a portrait sheet has no room for it.
+constexpr const char* kResultsElsewhere =
+    "Results for both rotations (tensions, torque, lever force, pressure, stress): on the "
+    "calculation sheet; no room for the table on this sheet.";
+
 // Tables, notes, caution and title block: nothing else may be drawn over them.
 std::vector<Box> obstacles(const Zones& z) {
-  return {z.title_block.grown(1), z.caution.grown(1), z.parts.grown(1), z.results.grown(1),
-          z.notes.grown(1)};
+  std::vector<Box> out = {z.title_block.grown(1), z.caution.grown(1), z.parts.grown(1), z.results.grown(1),
+                          z.notes.grown(1)};
+  if (z.sheets.width() > 0) out.push_back(z.sheets.grown(1));
+  return out;
 }
 
 Zones make_zones(const Canvas& c, const SheetSize& s, double results_h, double parts_h,
@@ -75,67 +84,26 @@ Margins front_margins(const Features& f) {
 
 Margins side_margins() { return {6, 8 + 2 * kLevel, 8 + 2 * kLevel, 6}; }
 
-}  // namespace
+// Where the front and side views go: the scale, the front view's origin on the sheet, the side
+// view's origin's x offset from it, and the boxes the group takes on the sheet (geometry and the
+// strips that carry its dimensions).
+struct Placement {
+  Scale scale;
+  Pt origin;
+  double dx = 0;
+  std::vector<Box> foot;
+};
 
-Box caution_box(const Canvas& c, const SheetSize& sheet) {
-  const Box tb = title_block_box(sheet);
-  const double h =
-      static_cast<double>(wrap_lines(c, caution_text(), Lettering::body, tb.width() - 4).size()) *
-          Lettering::body * 1.65 + 3;
-  return {tb.x0, tb.y1 + 3, tb.x1, tb.y1 + 3 + h};
-}
-
-void draw_caution(Canvas& c, const Box& b) {
-  c.fill_rect(b, {1, 1, 1});
-  c.pen(Pen::wide, {0.75, 0, 0});
-  c.rect(b);
-  double y = b.y1 - 1.5 - Lettering::body;
-  for (const auto& line : wrap_lines(c, caution_text(), Lettering::body, b.width() - 4)) {
-    c.text({b.x0 + 2, y}, line, Lettering::body, Align::left, 0, {0.75, 0, 0});
-    y -= Lettering::body * 1.65;
-  }
-  c.pen(Pen::narrow);
-}
-
-std::string assembly_subtitle(const Design& d, const Solution& s, UnitSystem u) {
-  std::string kind = to_string(s.layout.kind);
-  kind[0] = static_cast<char>(std::toupper(kind[0]));
-  return kind + " band brake, drum Ø" + dim_length(d.drum.diameter, u) +
-         (u == UnitSystem::si ? " mm" : " in") + ", wrap " + degrees(s.layout.wrap) +
-         ", design rotation " + turn_word(d.drum.rotation);
-}
-
-AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
-                           const geom::BrakeModel& model, const SheetSize& sheet) {
-  AssemblyPlan plan;
-  plan.sheet = sheet;
-  plan.front = geom::project(model, geom::front_view());
-  plan.side = geom::project(model, geom::left_view());
-  plan.hlr_ms = plan.front.milliseconds + plan.side.milliseconds;
-
-  const UnitSystem any = UnitSystem::si;  // table heights do not depend on the units
-  {
-    const Box f = frame_box(sheet);
-    const double notes_w = sheet.width > sheet.height ? title_block_box(sheet).x0 - f.x0 - 2 * kGap
-                                                      : f.width() - 2 * kGap;
-    plan.zones = make_zones(c, sheet, table_height(c, results_table(d, s, any)),
-                            table_height(c, parts_table(model, any)),
-                            notes_lines(c, general_notes(d, s, any), notes_w));
-  }
+// The largest scale of `tried` at which the front and side views and their dimension space fit
+// the views area clear of `blocked`, at the free spot nearest the top centre of the sheet.
+std::optional<Placement> place_views(const AssemblyPlan& plan, const Design& d, const std::vector<Scale>& tried,
+                                     const std::vector<Box>& blocked) {
   const Box area = plan.zones.views;
   const Features f = features(d);
   const Margins fm = front_margins(f), sm = side_margins();
   const auto& F = plan.front;
   const auto& S = plan.side;
-
-  std::vector<Scale> tried;
-  if (d.drawing.scale_num > 0 && d.drawing.scale_den > 0) {
-    tried.push_back({d.drawing.scale_num, d.drawing.scale_den});
-  } else {
-    tried = standard_scales();
-  }
   const double gap = 12;
-  const auto blocked = obstacles(plan.zones);
   for (const Scale& sc : tried) {
     const double k = sc.factor();
     // The group's footprint relative to the front origin: each view's geometry with a small
@@ -200,9 +168,166 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
       }
     }
     if (!found) continue;
-    plan.scale = sc;
-    plan.front_origin = best;
-    plan.side_origin = {best.x + dx, best.y};
+    for (Box& b : foot) b = {b.x0 + best.x, b.y0 + best.y, b.x1 + best.x, b.y1 + best.y};
+    return Placement{sc, best, dx, std::move(foot)};
+  }
+  return std::nullopt;
+}
+
+// The list of sheets' own place, w × h: right-aligned above the parts list on landscape sheets
+// (the list belongs with the tables by the title block), above the notes on A4 portrait, where
+// the parts list spans the frame and the views need the height.
+Box list_zone(const Zones& z, const SheetSize& s, double w, double h) {
+  const Box& under = s.width > s.height ? z.parts : z.notes;
+  return {under.x1 - w, under.y1 + kGap, under.x1, under.y1 + kGap + h};
+}
+
+// A spot for a w × h box in `area` clear of the views' footprint (grown for the balloons and
+// labels placed around it) and of `blocked`, its lower-right corner nearest `anchor`.
+std::optional<Box> free_spot(const Box& area, double w, double h, const std::vector<Box>& foot,
+                             const std::vector<Box>& blocked, Pt anchor) {
+  std::optional<Box> best;
+  double best_score = 1e18;
+  for (double x0 = area.x0; x0 + w <= area.x1; x0 += 2) {
+    for (double y0 = area.y0; y0 + h <= area.y1; y0 += 2) {
+      const Box b{x0, y0, x0 + w, y0 + h};
+      bool ok = true;
+      for (const Box& f : foot) ok = ok && !b.overlaps(f, 10);
+      for (const Box& o : blocked) ok = ok && !b.overlaps(o, kGap);
+      if (!ok) continue;
+      const double score = std::hypot(b.x1 - anchor.x, b.y0 - anchor.y);
+      if (score < best_score) {
+        best_score = score;
+        best = b;
+      }
+    }
+  }
+  return best;
+}
+
+}  // namespace
+
+Box caution_box(const Canvas& c, const SheetSize& sheet) {
+  const Box tb = title_block_box(sheet);
+  const double h =
+      static_cast<double>(wrap_lines(c, caution_text(), Lettering::body, tb.width() - 4).size()) *
+          Lettering::body * 1.65 + 3;
+  return {tb.x0, tb.y1 + 3, tb.x1, tb.y1 + 3 + h};
+}
+
+void draw_caution(Canvas& c, const Box& b) {
+  c.fill_rect(b, {1, 1, 1});
+  c.pen(Pen::wide, {0.75, 0, 0});
+  c.rect(b);
+  double y = b.y1 - 1.5 - Lettering::body;
+  for (const auto& line : wrap_lines(c, caution_text(), Lettering::body, b.width() - 4)) {
+    c.text({b.x0 + 2, y}, line, Lettering::body, Align::left, 0, {0.75, 0, 0});
+    y -= Lettering::body * 1.65;
+  }
+  c.pen(Pen::narrow);
+}
+
+std::string assembly_subtitle(const Design& d, const Solution& s, UnitSystem u) {
+  std::string kind = to_string(s.layout.kind);
+  kind[0] = static_cast<char>(std::toupper(kind[0]));
+  return kind + " band brake, drum Ø" + dim_length(d.drum.diameter, u) +
+         (u == UnitSystem::si ? " mm" : " in") + ", wrap " + degrees(s.layout.wrap) +
+         ", design rotation " + turn_word(d.drum.rotation);
+}
+
+AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
+                           const geom::BrakeModel& model, const SheetSize& sheet,
+                           const std::vector<SheetEntry>& sheets) {
+  AssemblyPlan plan;
+  plan.sheet = sheet;
+  plan.front = geom::project(model, geom::front_view());
+  plan.side = geom::project(model, geom::left_view());
+  plan.hlr_ms = plan.front.milliseconds + plan.side.milliseconds;
+  {
+    // Visible edges only: hidden lines would only clutter a view that shows the whole at a glance.
+    geom::ProjectOptions o;
+    o.hidden = false;
+    plan.iso = geom::project(model, geom::isometric_view(), o);
+    plan.iso_ms = plan.iso.milliseconds;
+  }
+
+  const UnitSystem any = UnitSystem::si;  // table heights do not depend on the units
+  // On a portrait sheet every zone spans the frame; when the views then fit at no scale, the
+  // results table (repeated on the calculation sheet) is left out and a note says where it is.
+  for (const bool without_results : {false, true}) {
+  if (without_results && !(sheet.height > sheet.width)) break;
+  plan.results_omitted = without_results;
+  {
+    const Box f = frame_box(sheet);
+    const double notes_w = sheet.width > sheet.height ? title_block_box(sheet).x0 - f.x0 - 2 * kGap
+                                                      : f.width() - 2 * kGap;
+    std::vector<std::string> notes = general_notes(d, s, any);
+    if (without_results) notes.push_back(kResultsElsewhere);
+    plan.zones = make_zones(c, sheet, without_results ? 0.0 : table_height(c, results_table(d, s, any)),
+                            table_height(c, parts_table(model, any)),
+                            notes_lines(c, notes, notes_w));
+  }
+  const Box area = plan.zones.views;
+  std::vector<Scale> tried;
+  if (d.drawing.scale_num > 0 && d.drawing.scale_den > 0) {
+    tried.push_back({d.drawing.scale_num, d.drawing.scale_den});
+  } else {
+    tried = standard_scales();
+  }
+  const std::vector<Box> blocked = obstacles(plan.zones);
+  const std::optional<Placement> free_run = place_views(plan, d, tried, blocked);
+  std::optional<Placement> chosen;
+  if (sheets.empty()) {
+    chosen = free_run;
+  } else {
+    // The list of sheets: one column of entries, else two side by side (half as tall).
+    const Table lists[2] = {sheet_list_table(c, sheets, 1), sheet_list_table(c, sheets, 2)};
+    // Its own place (above the parts list), where the views keep the scale they have without it;
+    // when `any_scale`, at whatever scale the views then fit.
+    auto own_place = [&](bool any_scale) {
+      for (const Table& t : lists) {
+        Zones z = plan.zones;
+        z.sheets = list_zone(z, sheet, t.width(), table_height(c, t));
+        if (z.sheets.y1 > area.y1) continue;  // taller than the sheet has room for
+        std::optional<Placement> run = place_views(plan, d, tried, obstacles(z));
+        if (run && (any_scale || !free_run || run->scale.factor() >= free_run->scale.factor())) {
+          plan.zones = z;
+          plan.sheet_list = t;
+          chosen = run;
+          return;
+        }
+      }
+    };
+    own_place(false);
+    // Else in free space beside the views as they are placed without it.
+    if (!chosen && free_run) {
+      const Box own = list_zone(plan.zones, sheet, 0, 0);
+      for (const Table& t : lists) {
+        const std::optional<Box> spot =
+            free_spot(area, t.width(), table_height(c, t), free_run->foot, blocked, {own.x1, own.y0});
+        if (spot) {
+          plan.zones.sheets = *spot;
+          plan.sheet_list = t;
+          chosen = free_run;
+          break;
+        }
+      }
+    }
+    if (!chosen) own_place(true);
+    // Else (A4 portrait, where every zone spans the frame and the views keep 2 mm to spare) the
+    // views as they are, and a note in place of the list.
+    if (!chosen && free_run) {
+      chosen = free_run;
+      plan.sheet_list_omitted = true;
+    }
+  }
+  if (chosen) {
+    const double k = chosen->scale.factor();
+    const auto& F = plan.front;
+    const auto& S = plan.side;
+    plan.scale = chosen->scale;
+    plan.front_origin = chosen->origin;
+    plan.side_origin = {chosen->origin.x + chosen->dx, chosen->origin.y};
     plan.drum_centre = plan.front_origin;
     plan.views_box = {std::min(plan.front_origin.x + F.min.x * k, plan.side_origin.x + S.min.x * k),
                       plan.front_origin.y + std::min(F.min.y, S.min.y) * k,
@@ -210,6 +335,12 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
                       plan.front_origin.y + std::max(F.max.y, S.max.y) * k};
     return plan;
   }
+  }
+  const Box area = plan.zones.views;
+  std::vector<Scale> tried = standard_scales();
+  if (d.drawing.scale_num > 0 && d.drawing.scale_den > 0) tried = {{d.drawing.scale_num, d.drawing.scale_den}};
+  const auto& F = plan.front;
+  const auto& S = plan.side;
   std::string list;
   for (const Scale& sc : tried) list += (list.empty() ? "" : ", ") + sc.text();
   char size[96];
@@ -227,15 +358,19 @@ namespace {
 
 void draw_tables_and_notes(Page1& p, const geom::BrakeModel& model) {
   const Zones& z = p.plan.zones;
-  Table rt = results_table(p.d, p.s, p.u);
-  fit_width(rt, z.results.width());
-  draw_table(p.c, rt, {z.results.x0, z.results.y1});
+  if (!p.plan.results_omitted) {
+    Table rt = results_table(p.d, p.s, p.u);
+    fit_width(rt, z.results.width());
+    draw_table(p.c, rt, {z.results.x0, z.results.y1});
+  }
   Table pt = parts_table(model, p.u);
   fit_width(pt, z.parts.width());
   draw_table(p.c, pt, {z.parts.x0, z.parts.y1});
+  if (!p.plan.sheet_list.rows.empty()) draw_table(p.c, p.plan.sheet_list, {z.sheets.x0, z.sheets.y1});
 
   std::vector<std::string> text = {"NOTES"};
   std::vector<std::string> items = general_notes(p.d, p.s, p.u);
+  if (p.plan.results_omitted) items.push_back(kResultsElsewhere);
   for (const auto& n : p.notes) items.push_back(n);
   for (size_t i = 0; i < items.size(); ++i) {
     for (auto& l : wrap_lines(p.c, std::to_string(i + 1) + ". " + items[i], Lettering::body, z.notes.width())) {
@@ -257,6 +392,7 @@ void draw_tables_and_notes(Page1& p, const geom::BrakeModel& model) {
     }
     if (!found) box.y1 = box.y0 + need;  // overflow: better than losing a note
   }
+  p.drawn.notes_box = {box.x0, box.y1 - need, box.x1, box.y1};
   double y = box.y1 - Lettering::body;
   for (const auto& l : text) {
     p.c.text({box.x0, y}, l, Lettering::body);
@@ -266,9 +402,9 @@ void draw_tables_and_notes(Page1& p, const geom::BrakeModel& model) {
 
 }  // namespace
 
-void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const Solution& s,
-                   const geom::BrakeModel& model, const geom::BrakeModel* released, UnitSystem u,
-                   std::vector<std::string>& notes) {
+AssemblyDrawn draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const Solution& s,
+                            const geom::BrakeModel& model, const geom::BrakeModel* released,
+                            UnitSystem u, std::vector<std::string>& notes) {
   Occupancy occ;
   occ.set_limits(plan.zones.views);
   for (const Box& o : obstacles(plan.zones)) occ.add_box(o);
@@ -283,7 +419,7 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
   p.band_outer = p.r + p.t_l + p.t;
   p.centre = plan.front_origin;
   p.drum_cl = p.band_outer * k + 5;
-  p.pin_cl = d.band.pin_diameter * kMmPerM * k + 3;
+  p.pin_cl = standard::clevis_nominal(d.band.pin_diameter) * kMmPerM * k + 3;
   p.f = features(d);
   p.fv = {p.front(plan.front.min).x, p.front(plan.front.min).y, p.front(plan.front.max).x,
           p.front(plan.front.max).y};
@@ -304,7 +440,20 @@ void draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d, const S
   dimension_side_view(p);
   draw_rotation_and_ends(p);
   draw_balloons(p, model);
+  // Last of the views, in the room the annotations left: it shows nothing they need.
+  const bool iso = draw_isometric(p);
+  if (!iso || plan.sheet_list_omitted) {
+    const std::string what = !iso && plan.sheet_list_omitted ? "the isometric view or the list of sheets"
+                             : !iso                          ? "the isometric view"
+                                                             : "the list of sheets";
+    // Appended piecewise: GCC 12 warns falsely (-Wrestrict) on "literal" + string.
+    std::string text = "No room on sheet ";
+    text.append(plan.sheet.name).append(" for ").append(what);
+    if (plan.sheet_list_omitted) text.append(" (each title block gives its sheet n / N)");
+    note_missing(p, text.append("; a larger [drawing] sheet has room."));
+  }
   draw_tables_and_notes(p, model);
+  return p.drawn;
 }
 
 }  // namespace bandforge::drawing

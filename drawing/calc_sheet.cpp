@@ -13,8 +13,10 @@
 #include "drawing/sheet.hpp"
 #include "drawing/table.hpp"
 #include "drawing/text_fit.hpp"
+#include "src/standard_parts.hpp"
 #include "src/fits.hpp"
 #include "src/report.hpp"
+#include "src/spring.hpp"
 
 namespace bandforge::drawing {
 namespace {
@@ -699,6 +701,352 @@ std::vector<std::string> cut_list_footnote(UnitSystem u) {
   return {s};
 }
 
+// ---- applying the brake (REFERENCE §8) ------------------------------------------------------
+// The weight's or the spring's statics at the applied, worn and released lever positions, the
+// spring as a maker quotes it, the release actuator's requirement and the hoist rules. Every
+// figure is read from Solution::apply (src/apply.hpp); the tables put the value beside the
+// quantity's name, then how it is found and its source.
+
+const char* const kShigleyFull =
+    "Shigley 9th ed.: Budynas & Nisbett, Shigley's Mechanical Engineering Design, 9th ed., ch. 10.";
+
+// Spring rate in the display units' force per length: "2.473 N/mm", "14.12 lbf/in".
+std::string rate_text(double n_per_m, UnitSystem u) {
+  const double v = to_display(n_per_m, Quantity::force, u) / to_display(1.0, Quantity::length, u);
+  return sig_figs(v, 4) + " " + display_unit(Quantity::force, u) + "/" + display_unit(Quantity::length, u);
+}
+
+// A count or a constant without trailing zeros: "13", "13.5", "0.707".
+std::string short_number(double v) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.4g", v);
+  return buf;
+}
+
+std::string unit_tag(Quantity q, UnitSystem u) { return " [" + display_unit(q, u) + "]"; }
+
+const char* sense_sign(const Layout& L) { return L.apply_sense > 0 ? "+1" : "−1"; }
+
+Table value_table() {
+  Table t;
+  t.widths = {50, 27, 59, 52};
+  t.rows.push_back({"Quantity", "Value", "Formula / how found", "Source"});
+  return t;
+}
+
+void add_row(Table& t, std::string a, std::string b, std::string c, std::string e) {
+  t.rows.push_back({std::move(a), std::move(b), std::move(c), std::move(e)});
+}
+
+std::vector<std::string> apply_method(const Design& d, const Solution& s) {
+  const ApplyResult& a = s.apply;
+  const std::string element = a.by == ApplyBy::spring ? "spring" : "weight";
+  std::vector<std::string> m;
+  m.push_back("The " + element + " replaces the operator's force: about the pivot O it must supply the "
+              "actuating moment M_act = F·L of section 4 at the lowest friction of the range, the most "
+              "the brake ever asks for (" +
+              (d.apply.both_rotations ? std::string("the worse drum rotation") : std::string("design rotation")) +
+              "), the lever's own weight included. Statics, moments about O, positive in the applying "
+              "sense σ; gravity along −y of the front view.");
+  m.push_back("Lining wear: a uniform radial wear w shortens the band on the wrap by φ·w, as the "
+              "release clearance c does, so that with the lining worn the lever stands turned further "
+              "in the applying sense by δψ_w = φ·w/|m_A + m_B|; released, it is turned back by "
+              "δψ = φ·c/|m_A + m_B| (geometry of the wrap). The band forces are those of the applied "
+              "layout at all three positions (small rotations).");
+  if (a.by == ApplyBy::spring) {
+    m.push_back("A compression spring lengthens as the lining wears and its force falls by k·Δ: it is "
+                "sized for the worn position. bandforge takes the lightest spring of the preferred wire "
+                "series (d), index 4 ≤ C ≤ 12 (D in 0.5 mm steps), active coils in half turns (N_a ≥ 3), "
+                "whose force at the worn position supplies M_act, whose shear stress at the released "
+                "position (the most compressed in service) is within the static allowable, with "
+                "overrun to closure ξ ≥ 0.15 and a free length below the buckling limit (Shigley 9th ed. "
+                "§10-9). The band and the lining must also take its full force with the lining new (the "
+                "checks under the applying element's full moment).");
+  } else {
+    m.push_back("A weight keeps its force W = m·g as the lining wears; its arm is the horizontal "
+                "distance from O to where it hangs, which turns with the lever.");
+  }
+  m.push_back("Release actuator: it lifts the lever by δψ against the " + element + " and the lever's "
+              "weight at the released position, its force perpendicular to O→A at its point A; the "
+              "stroke holds the wear rotation δψ_w in reserve, so that the lever can follow the worn "
+              "lining down and the brake still sets.");
+  return m;
+}
+
+Table apply_statics_table(const Design& d, const Solution& s, UnitSystem u) {
+  const ApplyResult& a = s.apply;
+  const Layout& L = s.layout;
+  Table t = value_table();
+  const std::string e = d.band.model == TensionModel::thick ? "e^(fφr/r_b)" : "e^(fφ)";
+  add_row(t, "Actuating moment needed M_act", qty(a.required_moment, Quantity::torque, u),
+          "F·L = −P2·(" + e + "·m't + m's), the largest over the friction range: " + a.governing,
+          "statics, section 4");
+  add_row(t, "Net arm of the runs |m_A + m_B|", len(std::abs(L.a.arm + L.b.arm), u),
+          "perpendicular arms of the runs about O", "section 3");
+  const bool wear_given = d.where.count("apply.wear_allowance") > 0;
+  add_row(t, "Wear allowance w", len(a.wear_allowance, u), "radial lining wear the element still covers",
+          wear_given ? "design file [apply] wear_allowance"
+                     : "default: half the lining thickness (common practice, no source)");
+  add_row(t, "Worn rotation δψ_w", degrees(a.wear_rotation, 3), "φ·w/|m_A + m_B|",
+          "geometry of the wrap, derived here");
+  add_row(t, "Release rotation δψ", degrees(a.release_rotation, 3),
+          "φ·c/|m_A + m_B|, c = " + len(d.band.clearance, u), "geometry of the wrap, derived here");
+  add_row(t, "Lever mass m_l", qty(a.lever_mass, Quantity::mass, u),
+          "plate (holes out) and grip, steel ρ = 7850 kg/m³", "generated hardware");
+  add_row(t, "Lever centre of mass G", point(a.lever_centroid, u), "applied position", "");
+  if (a.by == ApplyBy::weight) {
+    add_row(t, "Hanging mass m", qty(a.weight_mass, Quantity::mass, u), "", "design file [apply] mass");
+    // W from the core's own figures (its moment over its arm), so that nothing is recomputed.
+    const double w = a.applied.arm > 0 ? a.applied.element_moment / a.applied.arm : 0.0;
+    add_row(t, "Weight W", qty(w, Quantity::force, u), "m·g, g = 9.80665 m/s²",
+            "standard gravity (3rd CGPM, 1901)");
+    add_row(t, "Hung at P", point(a.applied.at, u), "applied position", "design file [apply] at");
+  } else {
+    add_row(t, "Spring acts on the lever at P", point(a.applied.at, u), "applied position",
+            "design file [apply] at");
+    add_row(t, "Spring seat on the frame S", point(a.seat, u), "the spring's axis runs S → P",
+            "design file [apply] seat");
+  }
+  add_row(t, "Available moment, worn", qty(a.available_moment, Quantity::torque, u),
+          "M_el + M_l at the worn position, ≥ M_act", "statics, moments about O");
+  return t;
+}
+
+Table apply_positions_table(const Solution& s, UnitSystem u) {
+  const ApplyResult& a = s.apply;
+  const bool spring = a.by == ApplyBy::spring && a.spring.found;
+  Table t;
+  t.widths = {50, 21, 21, 21, 75};
+  t.align = {Align::left, Align::right, Align::right, Align::right, Align::left};
+  t.rows.push_back({"Lever position", "Applied", "Worn", "Released", "Formula"});
+  const ApplyPosition* p[3] = {&a.applied, &a.worn, &a.released};
+  auto row = [&](std::string name, std::string formula, auto value_of) {
+    t.rows.push_back({std::move(name), value_of(0), value_of(1), value_of(2), std::move(formula)});
+  };
+  const std::string L = unit_tag(Quantity::length, u), F = unit_tag(Quantity::force, u),
+                    M = unit_tag(Quantity::torque, u);
+  row("Lever rotation ψ [°]", "from the applied position, ccw positive: worn σ·δψ_w, released −σ·δψ",
+      [&](int i) { return sig_figs(p[i]->rotation * 180.0 / std::numbers::pi, 4); });
+  if (a.by == ApplyBy::weight) {
+    row("Arm of the weight a" + L, "σ·(x_O − x_P): horizontal distance, P turned with the lever",
+        [&](int i) { return qty_value(p[i]->arm, Quantity::length, u); });
+  } else {
+    row("Arm of the spring a" + L, "σ·(P − O) × u, u = (P − S)/|P − S|: O to the spring's axis",
+        [&](int i) { return qty_value(p[i]->arm, Quantity::length, u); });
+  }
+  if (spring) {
+    const SpringResult& sp = a.spring;
+    const SpringState* st[3] = {&sp.applied, &sp.worn, &sp.released};
+    row("Spring length L" + L, "|P − S|, P turned with the lever",
+        [&](int i) { return qty_value(st[i]->length, Quantity::length, u); });
+    row("Spring deflection y" + L, "L_0 − L",
+        [&](int i) { return qty_value(sp.free_length - st[i]->length, Quantity::length, u); });
+    row("Spring force F" + F, "k·y", [&](int i) { return qty_value(st[i]->force, Quantity::force, u); });
+    row("Shear stress τ" + unit_tag(Quantity::stress, u), "K_B·8·F·D/(π·d³)",
+        [&](int i) { return qty_value(st[i]->stress, Quantity::stress, u); });
+  }
+  row(std::string(a.by == ApplyBy::weight ? "Weight's" : "Spring's") + " moment M_el" + M,
+      a.by == ApplyBy::weight ? "W·a" : "F·a",
+      [&](int i) { return qty_value(p[i]->element_moment, Quantity::torque, u); });
+  row("Lever weight's moment M_l" + M,
+      std::string("m_l·g·σ·(x_O − x_G), G turned with the lever; σ = ") + sense_sign(s.layout),
+      [&](int i) { return qty_value(p[i]->lever_moment, Quantity::torque, u); });
+  row("Applying moment M_el + M_l" + M, "worn: ≥ M_act = " + qty(a.required_moment, Quantity::torque, u),
+      [&](int i) { return qty_value(p[i]->element_moment + p[i]->lever_moment, Quantity::torque, u); });
+  return t;
+}
+
+std::string ends_text(SpringEnds e) {
+  switch (e) {
+    case SpringEnds::plain: return "plain";
+    case SpringEnds::plain_ground: return "plain and ground";
+    case SpringEnds::squared: return "squared, not ground";
+    case SpringEnds::squared_ground: return "squared and ground";
+  }
+  return to_string(e);
+}
+
+Table spring_table(const Design& d, const Solution& s, UnitSystem u, Refs& refs) {
+  const SpringResult& sp = s.apply.spring;
+  const SpringWire* wire = find_spring_wire(sp.material);
+  Table t = value_table();
+  // The key goes with its source: a long single word would not fit the value column.
+  add_row(t, "Wire", "", wire != nullptr ? wire->description : sp.material,
+          std::string(d.where.count("apply.spring_material") > 0 ? "design file [apply]"
+                                                                 : "default of [apply]") +
+              " spring_material = \"" + sp.material + "\"");
+  add_row(t, "Wire diameter d", len(sp.wire_diameter, u), "the lightest spring that passes",
+          "preferred series " + refs.cite(kWireDiameterSource));
+  add_row(t, "Mean coil diameter D", len(sp.mean_diameter, u), "in 0.5 mm steps, 4 ≤ C ≤ 12",
+          "Shigley 9th ed. eq. 10-18");
+  add_row(t, "Outside diameter D_o", len(sp.outer_diameter, u), "D + d", "");
+  add_row(t, "Spring index C", sig_figs(sp.index, 4), "C = D/d", "Shigley 9th ed. eq. 10-1");
+  add_row(t, "Bergsträsser factor K_B", sig_figs(bergstrasser(sp.index), 4),
+          "(4C + 2)/(4C − 3)\nEN 13906-1: k = (C + 0.5)/(C − 0.75), the same factor",
+          "Shigley 9th ed. eq. 10-5; EN 13906-1");
+  if (wire != nullptr) {
+    add_row(t, "Tensile strength S_ut", qty(sp.tensile_strength, Quantity::stress, u),
+            "A/d^m (eq. 10-14), d in mm: A = " + sig_figs(wire->a_mpa, 4) + " MPa·mm^m, m = " +
+                sig_figs(wire->m, 3),
+            "Shigley 9th ed. Table 10-4 " + refs.cite(wire->strength_source));
+    add_row(t, "Allowable shear stress", qty(sp.allowable, Quantity::stress, u),
+            sig_figs(wire->allowable_fraction * 100, 2) + " % of S_ut, static service",
+            "Shigley 9th ed. Table 10-6 " + refs.cite(wire->allowable_source));
+    add_row(t, "Shear modulus G", qty(sp.shear_modulus, Quantity::stress, u), "for the wire and d",
+            "Shigley 9th ed. Table 10-5 " + refs.cite(wire->modulus_source));
+  }
+  add_row(t, "Coils, active N_a", short_number(sp.active_coils),
+          "fewest half turns that keep τ ≤ allowable when released, N_a ≥ 3", "Shigley 9th ed. eq. 10-19");
+  const bool two = sp.ends == SpringEnds::squared || sp.ends == SpringEnds::squared_ground;
+  add_row(t, "Coils, total N_t", short_number(sp.total_coils),
+          sp.ends == SpringEnds::plain ? "N_a (plain ends)"
+                                       : std::string(two ? "N_a + 2" : "N_a + 1") + ", ends " + ends_text(sp.ends),
+          "Shigley 9th ed. Table 10-1");
+  add_row(t, "Spring rate k", rate_text(sp.rate, u), "d⁴·G/(8·D³·N_a)", "Shigley 9th ed. eq. 10-9");
+  add_row(t, "Shear stress, released τ", qty(sp.released.stress, Quantity::stress, u),
+          "K_B·8·F·D/(π·d³) at the released force, ≤ the allowable", "Shigley 9th ed. eq. 10-7");
+  add_row(t, "Free length L_0", len(sp.free_length, u), "L_worn + F_worn/k: the force needed when worn",
+          "statics above");
+  const bool ground = sp.ends == SpringEnds::plain_ground || sp.ends == SpringEnds::squared_ground;
+  add_row(t, "Solid length L_s", len(sp.solid_length, u), ground ? "d·N_t" : "d·(N_t + 1)",
+          "Shigley 9th ed. Table 10-1");
+  add_row(t, "Overrun to closure ξ", sig_figs(sp.overrun, 3), "(L_0 − L_s)/(L_0 − L_released) − 1 ≥ 0.15",
+          "Shigley 9th ed. eq. 10-20");
+  add_row(t, "Buckling limit", len(sp.buckling_length, u),
+          "L_0 < 2.63·D/α, α = " + short_number(sp.alpha) + " (seats " + to_string(d.apply.spring_seats) + ")",
+          "Shigley 9th ed. eq. 10-13");
+  add_row(t, "Wire mass", qty(sp.mass, Quantity::mass, u), "ρ·(π·d²/4)·(π·D·N_t), ρ = 7850 kg/m³", "");
+  return t;
+}
+
+// One sentence a spring maker can quote from.
+std::string spring_specification(const SpringResult& sp, UnitSystem u) {
+  const SpringWire* wire = find_spring_wire(sp.material);
+  auto at = [&](const SpringState& st) {
+    return qty(st.force, Quantity::force, u) + " at " + len(st.length, u);
+  };
+  return "Specification: helical compression spring, " +
+         (wire != nullptr ? wire->description : sp.material) + "; d = " + len(sp.wire_diameter, u) +
+         ", mean Ø" + len(sp.mean_diameter, u) + " (outside Ø" + len(sp.outer_diameter, u) + "), " +
+         short_number(sp.total_coils) + " total coils (" + short_number(sp.active_coils) + " active), ends " +
+         ends_text(sp.ends) + "; free length " + len(sp.free_length, u) + ", solid length " +
+         len(sp.solid_length, u) + ", rate " + rate_text(sp.rate, u) + "; working points " +
+         at(sp.applied) + " (applied), " + at(sp.worn) + " (worn), " + at(sp.released) +
+         " (released, the most compressed); static service.";
+}
+
+Table actuator_table(const Solution& s, UnitSystem u) {
+  const ApplyResult& a = s.apply;
+  const ActuatorNeed& act = a.actuator;
+  Table t = value_table();
+  add_row(t, "Actuator point A", point(act.at, u), "on the lever, applied position",
+          "design file [apply] actuator_at (default: apply.at)");
+  add_row(t, "Actuator arm L_a", len(act.arm, u), "|A − O|; force perpendicular to O→A", "");
+  add_row(t, "Actuator lift", len(act.travel, u), "L_a·δψ: opens the clearance", "geometry of the lever");
+  add_row(t, "Reserve for the wear", len(act.margin, u), "L_a·δψ_w",
+          "the wear allowance; common practice, no source");
+  add_row(t, "Actuator stroke", len(act.stroke, u), "lift + reserve", "");
+  add_row(t, "Actuator force", qty(act.force, Quantity::force, u),
+          "(M_el + M_l)/L_a at the released position = (" +
+              qty_value(a.released.element_moment, Quantity::torque, u) + " + " +
+              qty_value(a.released.lever_moment, Quantity::torque, u) + ") " +
+              display_unit(Quantity::torque, u) + "/L_a",
+          "statics, moments about O");
+  return t;
+}
+
+// The hoist rules of 29 CFR 1910.179(f)(2) as the checks state them; empty without hoist duty.
+Table hoist_rules_table(const Design& d, const Solution& s, UnitSystem u) {
+  Table t;
+  t.widths = {44, 56, 70, 16};
+  t.align = {Align::left, Align::left, Align::left, Align::centre};
+  t.rows.push_back({"Rule", "This brake", "Source", "Result"});
+  for (const Check& c : s.checks) {
+    if (c.id == "self_setting") {
+      t.rows.push_back({c.title, c.note, c.source, c.ok ? "pass" : "FAIL"});
+    } else if (c.id == "hoist_holding") {
+      const ApplyResult& a = s.apply;
+      std::string how;
+      if (a.present) {
+        how = "T_hold = T_design·(M_el + M_l)_worn/M_act = " + qty(s.required_torque, Quantity::torque, u) +
+              " × " + qty_value(a.available_moment, Quantity::torque, u) + "/" +
+              qty_value(a.required_moment, Quantity::torque, u);
+      } else {
+        how = d.load.given == Load::Given::torque ? "T_hold = T_load·K, the design torque"
+                                                  : "T_hold at the given lever force, f_min";
+      }
+      t.rows.push_back({c.title,
+                        how + " = " + qty(c.value, Quantity::torque, u) + " ≥ 1.25·m·g·r_rope = " +
+                            qty(c.limit, Quantity::torque, u),
+                        c.source, c.ok ? "pass" : "FAIL"});
+    }
+  }
+  if (t.rows.size() == 1) t.rows.clear();
+  return t;
+}
+
+// A line that introduces the table after it and goes with it to the next column.
+Block caption(std::string text) {
+  Block b = paragraphs({std::move(text)}, false);
+  b.keep_with_next = true;
+  b.space_after = 1.0;
+  return b;
+}
+
+void apply_blocks(std::vector<Block>& b, int& section, const Design& d, const Solution& s, UnitSystem u,
+                  Refs& refs) {
+  const ApplyResult& a = s.apply;
+  const Table hoist = hoist_rules_table(d, s, u);
+  const std::string n = std::to_string(section++) + "  ";
+  if (!a.present) {
+    b.push_back(heading(n + "Applying the brake: " + std::string(a.by == ApplyBy::hand ? "by hand" : to_string(a.by))));
+    std::vector<std::string> lines;
+    if (a.by == ApplyBy::hand) {
+      lines.push_back("Applied by hand: the operator's force F at the handle H supplies the actuating "
+                      "moment (section 4); nothing sets the brake by itself when the operator lets go.");
+    } else {
+      lines.push_back(std::string("Applied by a ") + to_string(a.by) +
+                      ": a concept design has no lever coordinates to size it on.");
+    }
+    b.push_back(paragraphs(lines, false));
+    if (!hoist.rows.empty()) {
+      b.push_back(caption("Hoist rules (also in the checks):"));
+      b.push_back(table_block(hoist));
+    }
+    return;
+  }
+  const bool spring = a.by == ApplyBy::spring;
+  b.push_back(heading(n + (spring ? "Applying the brake: a compression spring, released by an actuator"
+                                  : "Applying the brake: a weight, released by an actuator")));
+  b.push_back(paragraphs(apply_method(d, s), true));
+  b.push_back(table_block(apply_statics_table(d, s, u)));
+  b.push_back(table_block(apply_positions_table(s, u)));
+  const size_t cited = refs.lines().size();  // the inputs' sources are listed with the inputs
+  if (spring) {
+    if (a.spring.found) {
+      b.push_back(caption("The spring (every figure for the spring maker):"));
+      b.push_back(table_block(spring_table(d, s, u, refs)));
+      b.push_back(paragraphs({spring_specification(a.spring, u)}, false));
+    } else {
+      b.push_back(paragraphs({"NO SPRING FOUND: " + a.refusal}, false));
+    }
+  }
+  if (!spring || a.spring.found) {
+    b.push_back(caption("The release actuator's requirement (the buyer chooses the product):"));
+    b.push_back(table_block(actuator_table(s, u)));
+  }
+  if (!hoist.rows.empty()) {
+    b.push_back(caption("Hoist rules (also in the checks):"));
+    b.push_back(table_block(hoist));
+  }
+  if (spring) {
+    std::vector<std::string> sources = {std::string("Sources: ") + kShigleyFull};
+    const std::vector<std::string> all = refs.lines();
+    for (size_t i = cited; i < all.size(); ++i) sources.push_back(all[i]);
+    b.push_back(paragraphs(sources, false));
+  }
+}
+
 }  // namespace
 
 Turn rotation_for(const Solution& s, bool a_tight) {
@@ -733,9 +1081,10 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
   b.push_back(plot_block(lever_plot(d, s, u)));
   b.push_back(heading(s.thermal.present ? "6  Capacity and thermal duty" : "6  Capacity"));
   b.push_back(table_block(capacity_thermal_table(d, s, u)));
-  b.push_back(heading("7  Checks"));
+  int section = 7;
+  apply_blocks(b, section, d, s, u, refs);
+  b.push_back(heading(std::to_string(section++) + "  Checks"));
   b.push_back(table_block(checks_table(s, u)));
-  int section = 8;
   if (s.hardware.present) {
     // What bandforge added by itself, with the rules behind it (README "Generated hardware").
     std::vector<std::string> lines = hardware_summary(s.hardware, u);
@@ -760,13 +1109,23 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
                       why);
     };
     if (s.hardware.present) {
-      if (const auto f = fits::fit(d.band.pin_diameter, fits::kPinHole, fits::kPinShaft)) {
+      if (const auto f = fits::fit(standard::clevis_nominal(d.band.pin_diameter), fits::kPinHole, fits::kPinShaft)) {
         describe("Band-end and pivot pins", *f,
                  "A loose clearance fit for clevis joints, tolerant of paint and dirt (common practice, "
                  "no source).");
       } else {
-        lines.push_back("Pins Ø" + dim_length(d.band.pin_diameter, UnitSystem::si) +
+        lines.push_back("Pins Ø" + dim_length(standard::clevis_nominal(d.band.pin_diameter), UnitSystem::si) +
                         " mm: outside the ISO 286 range bandforge carries (3–120 mm); specify the fit by hand.");
+      }
+      // The pins as bought (src/standard_parts.hpp): nominal, length from the grip, retention.
+      for (const PinPlan& pin : s.hardware.pins) {
+        const standard::PinSet& ps = pin.set;
+        lines.push_back("Pin " + pin.id + ": " + ps.pin_designation() + ", " + ps.washer_designation() +
+                        ", " + ps.split_designation() + "; grip " + dim_length(ps.grip, UnitSystem::si) +
+                        " mm, hole l − l_e = " + dim_length(ps.hole_at, UnitSystem::si) + " mm ≥ grip + h + d₁/2 = " +
+                        dim_length(ps.grip + ps.washer.h + ps.pin.d1 / 2, UnitSystem::si) + " mm, head at the " +
+                        (pin.head_front ? "front" : "back") + ". " + standard::kPinSource + "; " +
+                        standard::kWasherSource + "; " + standard::kSplitPinSource + ".");
       }
     }
     if (const auto f = fits::fit(d.drum.bore, fits::kBoreHole, fits::kBoreShaft)) {

@@ -54,7 +54,9 @@ struct Ink {
 
 class Canvas {
  public:
-  Canvas();
+  /// `one_file_per_sheet`: every page is also drawn into a document of its own
+  /// (finish_sheets()), for `build --sheets separate`.
+  explicit Canvas(bool one_file_per_sheet = false);
   ~Canvas();
   Canvas(const Canvas&) = delete;
   Canvas& operator=(const Canvas&) = delete;
@@ -83,6 +85,8 @@ class Canvas {
 
   /// The finished PDF bytes. The canvas is unusable afterwards.
   std::vector<unsigned char> finish();
+  /// With one_file_per_sheet: one finished PDF per page, in page order (empty otherwise).
+  std::vector<std::vector<unsigned char>> finish_sheets();
 
  private:
   struct Impl;

@@ -6,47 +6,17 @@
 
 #include "drawing/annotate.hpp"
 #include "drawing/assembly_sheet.hpp"
+#include "drawing/detail_page.hpp"
 #include "drawing/format.hpp"
 #include "drawing/table.hpp"
 #include "drawing/views.hpp"
 #include "geometry/projection.hpp"
+#include "src/standard_parts.hpp"
 #include "src/errors.hpp"
 #include "src/fits.hpp"
 
 namespace bandforge::drawing {
 namespace {
-
-/// The edges turned into the lever's frame: origin at the pivot, +x toward the handle.
-geom::ProjectedView to_frame(const geom::ProjectedView& v, geom::Point2 origin, double angle) {
-  const double c = std::cos(-angle), s = std::sin(-angle);
-  auto turn = [&](geom::Point2 p) {
-    const double x = p.x - origin.x, y = p.y - origin.y;
-    return geom::Point2{c * x - s * y, s * x + c * y};
-  };
-  geom::ProjectedView out;
-  out.min = {1e300, 1e300};
-  out.max = {-1e300, -1e300};
-  auto take = [&](geom::Point2 p) {
-    out.min = {std::min(out.min.x, p.x), std::min(out.min.y, p.y)};
-    out.max = {std::max(out.max.x, p.x), std::max(out.max.y, p.y)};
-  };
-  for (geom::ViewEdge e : v.edges) {
-    e.a = turn(e.a);
-    e.b = turn(e.b);
-    e.centre = turn(e.centre);
-    e.start -= angle;
-    for (auto& p : e.points) p = turn(p);
-    take(e.a);
-    take(e.b);
-    if (e.kind == geom::ViewEdge::Kind::arc) {
-      take({e.centre.x - e.radius, e.centre.y - e.radius});
-      take({e.centre.x + e.radius, e.centre.y + e.radius});
-    }
-    for (const auto& p : e.points) take(p);
-    out.edges.push_back(std::move(e));
-  }
-  return out;
-}
 
 std::string mm1(double v) {
   char buf[32];
@@ -59,11 +29,25 @@ std::string mm1(double v) {
 std::vector<std::string> detail_parts(const geom::BrakeModel& model) {
   std::vector<std::string> out;
   const std::vector<std::string> kinds = geom::part_kinds(model);
+  for (const char* first : {"drum", "band"}) {
+    for (std::size_t i = 0; i < model.parts().size(); ++i)
+      if (kinds[i] == first) {
+        out.push_back(model.parts()[i].name);
+        break;
+      }
+  }
   for (std::size_t i = 0; i < model.parts().size(); ++i)
     if (kinds[i] == "lever") out.push_back(model.parts()[i].name);
   for (std::size_t i = 0; i < model.parts().size(); ++i)
     if (kinds[i] == "anchor") out.push_back(model.parts()[i].name);
   return out;
+}
+
+std::string detail_kind(const geom::BrakeModel& model, const std::string& part) {
+  const std::vector<std::string> kinds = geom::part_kinds(model);
+  for (std::size_t i = 0; i < model.parts().size(); ++i)
+    if (model.parts()[i].name == part) return kinds[i];
+  return "";
 }
 
 std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, const Design& d,
@@ -88,7 +72,7 @@ std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, con
   only.instances = {part->instance_names.front()};
   const geom::ProjectedView raw = geom::project(model, geom::front_view(), only);
   // Bores: circles no larger than the largest pin; the outline's corner arcs are larger.
-  const double max_bore = d.band.pin_diameter * 1000 / 2 + 0.01;
+  const double max_bore = standard::clevis_nominal(d.band.pin_diameter) * 1000 / 2 + 0.01;
   std::vector<geom::Point2> bores;
   for (const geom::ViewEdge& e : raw.edges) {
     if (e.kind != geom::ViewEdge::Kind::arc || e.radius > max_bore) continue;
@@ -116,7 +100,7 @@ std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, con
       }
     }
   }
-  const geom::ProjectedView front = to_frame(raw, origin, angle);
+  const geom::ProjectedView front = to_part_frame(raw, origin, angle);
   // The edge view: looking at the plate's long edge from the frame's +y side (paper right = the
   // frame's x axis, up = −z).
   const geom::Vec3 along{std::cos(angle), std::sin(angle), 0}, side{-std::sin(angle), std::cos(angle), 0};
@@ -125,7 +109,7 @@ std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, con
   // Its horizontal coordinate is the position along the frame's x axis from the model origin;
   // shift it so that the frame origin is at 0 like the front view.
   const double shift = origin.x * along.x + origin.y * along.y;
-  geom::ProjectedView edge = to_frame(edge_raw, {shift, 0}, 0);
+  geom::ProjectedView edge = to_part_frame(edge_raw, {shift, 0}, 0);
   const double thickness = edge.max.y - edge.min.y;
 
   std::vector<DetailHole> holes;
@@ -152,10 +136,10 @@ std::vector<DetailHole> draw_detail_sheet(Canvas& c, const SheetSize& sheet, con
   t.widths = {14, 26, 26, 44};
   t.align = {Align::left, Align::right, Align::right, Align::left};
   t.rows.push_back({"Hole", "x", "y", "Size (ISO 286)"});
-  const auto pin_fit = fits::fit(d.band.pin_diameter, fits::kPinHole, fits::kPinShaft);
+  const auto pin_fit = fits::fit(standard::clevis_nominal(d.band.pin_diameter), fits::kPinHole, fits::kPinShaft);
   for (const DetailHole& h : holes) {
     std::string size = "Ø" + mm1(h.diameter);
-    if (pin_fit && std::abs(h.diameter - d.band.pin_diameter * 1000) < 0.01) size += std::string(" ") + fits::kPinHole;
+    if (pin_fit && std::abs(h.diameter - standard::clevis_nominal(d.band.pin_diameter) * 1000) < 0.01) size += std::string(" ") + fits::kPinHole;
     t.rows.push_back({h.name, mm1(h.x), mm1(h.y), size});
   }
   const double table_h = table_height(c, t);

@@ -24,8 +24,32 @@ struct DetailHole {
   double diameter = 0;
 };
 
-/// The made parts that get a detail sheet, in sheet order: "LEVER", then each frame-bracket part.
+/// The made parts that get a detail sheet, in sheet order (issue 10): the drum ("DRUM"), the
+/// band assembly (named by its band part, "BAND": band, lining and end joints), the lever, then
+/// each frame-bracket part.
 std::vector<std::string> detail_parts(const geom::BrakeModel& model);
+
+/// The kind of a detail_parts() entry: "drum", "band", "lever" or "anchor".
+std::string detail_kind(const geom::BrakeModel& model, const std::string& part);
+
+/// Where the drum sheet drew its tolerance symbols [sheet mm from the lower-left corner].
+struct DrumSheetMarks {
+  Box texture_symbol;  ///< the ISO 1302 surface texture symbol with its "Ra 1.6"
+  Box runout_frame;    ///< the ISO 1101 total-runout frame
+  Box datum;           ///< the datum A frame (ISO 5459)
+  int scale_num = 1, scale_den = 1;  ///< the sheet's ISO 5455 scale
+};
+
+/// The drum's sheet (drawing/detail_drum.cpp): view along the axis and section A–A, sizes from
+/// the solid's section, bore fit and datum, friction-surface tolerance, runout and texture.
+DrumSheetMarks draw_drum_sheet(Canvas& c, const SheetSize& sheet, const Design& design,
+                               const geom::BrakeModel& model, UnitSystem units, const TitleData& title);
+
+/// The band assembly's sheet (drawing/detail_band.cpp): the band with its lining and end joints
+/// as wrapped, section B–B across band and lining, a detail of each end joint, the developed
+/// length of the fab pack's band blank, rivets and blocks.
+void draw_band_sheet(Canvas& c, const SheetSize& sheet, const Design& design, const Solution& solution,
+                     const geom::BrakeModel& model, UnitSystem units, const TitleData& title);
 
 /// Draws the detail sheet of `part` (a name from detail_parts()) on a new page of `c`; returns
 /// its holes as tabulated.

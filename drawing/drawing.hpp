@@ -15,6 +15,19 @@
 
 namespace bandforge::drawing {
 
+/// One sheet of the set, as the plan lays the set out (the assembly sheet lists them).
+struct SheetEntry {
+  int number = 0;     ///< n of n/N, 1 for the first sheet
+  std::string title;  ///< "Assembly drawing", "Detail drawing LEVER", "Calculation sheet", …
+  std::string size;   ///< ISO 216 size it is drawn on: "A3"
+};
+
+/// A box on page 1 and what it holds, mm from the sheet's lower-left corner: x0, y0, x1, y1.
+struct PlacedBox {
+  std::string what;  ///< "front view", "side view", "isometric view", "parts list", …
+  std::array<double, 4> box{};
+};
+
 /// Where things land on the sheets, so that callers and tests can find them.
 struct SheetPlan {
   std::string sheet;        ///< "A2", "A3", "A4"
@@ -34,11 +47,29 @@ struct SheetPlan {
   double title_block[4] = {0, 0, 0, 0};
   /// Box around all view geometry (front, side and their centre lines) on page 1.
   double views_box[4] = {0, 0, 0, 0};
+  /// The isometric view on page 1 (ISO 5456-3): box around its edges and label, mm from the
+  /// lower-left corner; all zero when it had no room (a note on the sheet says so).
+  double iso_box[4] = {0, 0, 0, 0};
+  int iso_scale_num = 0;    ///< its ISO 5455 scale num:den; 0:0 when omitted
+  int iso_scale_den = 0;
+  /// Everything page 1 carries in a box: the views, detail X, the isometric view, the tables,
+  /// the notes, the caution and the title block (for tests of overlap).
+  std::vector<PlacedBox> page1_boxes;
+  /// The sheets of the set in order, as listed on page 1 (empty for a concept design).
+  std::vector<SheetEntry> sheet_list;
   int pages = 0;            ///< total pages in the PDF
-  int detail_sheets = 0;    ///< detail sheets after the assembly sheet (the lever, each bracket)
+  int detail_sheets = 0;    ///< detail sheets after the assembly sheet (drum, band, lever, each bracket)
   /// The lever sheet's hole table: x, y (lever frame, from the pivot hole) and diameter [mm].
   std::vector<std::array<double, 3>> lever_holes;
+  /// The drum's detail sheet: its page, and the boxes of its surface texture symbol, total-runout
+  /// frame and datum A frame (x0, y0, x1, y1, mm from the lower-left corner).
+  int drum_page = 0;
+  std::array<double, 4> drum_texture_symbol{};
+  std::array<double, 4> drum_runout_frame{};
+  std::array<double, 4> drum_datum{};
+  int band_page = 0;  ///< the band assembly's detail sheet
   double hlr_ms = 0;        ///< hidden-line removal time of the two main views [ms]
+  double iso_hlr_ms = 0;    ///< hidden-line removal time of the isometric view [ms]
   std::vector<std::string> notes;  ///< dimensions moved or dropped, and why
 };
 
@@ -62,9 +93,11 @@ SheetPlan write_drawing(const Design& design, const Solution& solution,
                         const geom::BrakeModel* model, const geom::BrakeModel* released,
                         const CutList& cut_list, UnitSystem units, const std::string& path);
 
-/// The same document as bytes (what write_drawing writes).
+/// The same document as bytes (what write_drawing writes). With `sheets`: also each sheet as a
+/// PDF of its own, in sheet order (`build --sheets separate`), from the same single drawing pass.
 std::string render_drawing(const Design& design, const Solution& solution,
                            const geom::BrakeModel* model, const geom::BrakeModel* released,
-                           const CutList& cut_list, UnitSystem units, SheetPlan* plan = nullptr);
+                           const CutList& cut_list, UnitSystem units, SheetPlan* plan = nullptr,
+                           std::vector<std::string>* sheets = nullptr);
 
 }  // namespace bandforge::drawing

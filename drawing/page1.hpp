@@ -52,6 +52,7 @@ struct Page1 {
   double pin_cl = 0;   ///< half-length of a pin's centre lines [sheet mm]
   Features f{};
   Box fv{};  ///< front view geometry [sheet mm]
+  AssemblyDrawn drawn{};  ///< what found its place while drawing
 
   /// Places a linear dimension, or records in the notes that it had no room.
   void dimension(const LinearDim& dim, const std::string& what);
@@ -63,5 +64,18 @@ void dimension_front_view(Page1& p);
 void dimension_side_view(Page1& p);
 void draw_rotation_and_ends(Page1& p);
 void draw_balloons(Page1& p, const geom::BrakeModel& model);
+
+/// The list of the sheets in the set as a ruled table: sheet n/N, title, size, columns as wide
+/// as their text; `groups` entries side by side (1 or 2), trading height for width.
+Table sheet_list_table(const Canvas& c, const std::vector<SheetEntry>& sheets, int groups);
+
+/// The isometric view (plan.iso) in free space: the largest ISO 5455 scale, not above the sheet
+/// scale, at which it finds room clear of everything drawn so far and of the main views' boxes.
+/// False when it finds none at a legible size (nothing drawn).
+bool draw_isometric(Page1& p);
+
+/// A short note of what the sheet had no room for, in free room of the views area, else in the
+/// notes.
+void note_missing(Page1& p, const std::string& text);
 
 }  // namespace bandforge::drawing

@@ -208,6 +208,8 @@ void draw_band_detail(Page1& p) {
       p.c.rect(frame);
       p.c.text({box.x0, box.y0 + 0.5}, "DETAIL X (" + std::to_string(kd) + ":1)", Lettering::heading);
       p.occ.add_box(box.grown(1));
+      p.drawn.detail_x = true;
+      p.drawn.detail_x_box = box;
       // Mark the detailed region on the side view.
       const Pt mc = p.side(Pt{(window.x0 + window.x1) / 2, (window.y0 + window.y1) / 2});
       const double mr = std::max(window.width(), window.height()) * p.k / 2 + 2;

@@ -1,6 +1,7 @@
 #include "drawing/page1_tables.hpp"
 
 #include "src/fits.hpp"
+#include "src/standard_parts.hpp"
 
 #include "drawing/format.hpp"
 
@@ -60,11 +61,13 @@ Table parts_table(const geom::BrakeModel& model, UnitSystem u) {
   Table t;
   t.widths = {12, 52, 12, 72, 32};
   t.align = {Align::centre, Align::left, Align::centre, Align::left, Align::right};
-  t.rows.push_back({"Item", "Name", "Qty", "Material", "Mass each"});
+  t.rows.push_back({"Item", "Name", "Qty", "Material or standard part", "Mass each"});
   int item = 0;
   for (const geom::PartInfo& p : model.parts()) {
+    // Bought parts by their standard designation (ISO 2341, ISO 8738, ISO 1234).
     t.rows.push_back({std::to_string(++item), p.name, std::to_string(p.instance_names.size()),
-                      p.material, qty(p.mass, Quantity::mass, u, 3)});
+                      p.designation.empty() ? p.material : p.designation,
+                      qty(p.mass, Quantity::mass, u, 3)});
   }
   return t;
 }
@@ -85,7 +88,7 @@ std::vector<std::string> general_notes(const Design& d, const Solution& s, UnitS
   // Fits (ISO 286) and general tolerances; the limit deviations are on the calculation sheet.
   {
     std::string note = "Fits ISO 286: ";
-    const auto pin = fits::fit(d.band.pin_diameter, fits::kPinHole, fits::kPinShaft);
+    const auto pin = fits::fit(standard::clevis_nominal(d.band.pin_diameter), fits::kPinHole, fits::kPinShaft);
     const auto bore = fits::fit(d.drum.bore, fits::kBoreHole, fits::kBoreShaft);
     if (s.hardware.present && pin) note += "pins " + pin->designation() + ", ";
     if (bore) note += "drum bore " + bore->designation() + ", ";

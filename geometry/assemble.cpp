@@ -3,6 +3,8 @@
 // source) and src/proportions.hpp for the drum; geometry/README.md lists them.
 #include <algorithm>
 #include <cmath>
+#include <functional>
+#include <map>
 #include <cstdio>
 #include <numbers>
 #include <string>
@@ -145,7 +147,8 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   if (options.released && !hw.release_ok) throw BuildError(hw.release_problem);
   const double band_t = design.band.thickness * mm_per_m, band_b = design.band.width * mm_per_m;
   const double lining_t = design.lining.thickness * mm_per_m;
-  const double pin_r = design.band.pin_diameter / 2 * mm_per_m;
+  // Holes for the pins as bought: the ISO 2341 nominal (src/standard_parts.hpp).
+  const double pin_r = standard::clevis_nominal(design.band.pin_diameter) / 2 * mm_per_m;
   const double lever_w = design.lever.width * mm_per_m, lever_t = design.lever.thickness * mm_per_m;
 
   AxialLayout& ax = m.axial;
@@ -154,7 +157,6 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   ax.band_back = hw.axial.band_back * mm_per_m;
   ax.band_front = hw.axial.band_front * mm_per_m;
   ax.gap = hw.axial.gap * mm_per_m;
-  ax.pin_overhang = hw.axial.pin_overhang * mm_per_m;
   ax.lever_back = hw.axial.lever_back * mm_per_m;
   ax.lever_front = hw.axial.lever_front * mm_per_m;
   // The deepest frame plate behind the band, for views and tests (the plan has each plate's own).
@@ -324,42 +326,112 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     }
   }
 
-  // Pins: one part per distinct length, centred on z = 0 in part coordinates.
-  std::vector<std::pair<double, std::size_t>> pin_parts;  // length → part
+  // Pins as bought (src/standard_parts.hpp): ISO 2341 B clevis pins, one part per size and
+  // length, the head's underside at z = 0 in part coordinates; ISO 8738 washers and ISO 1234
+  // split pins on the tail; spacer sleeves where the plan stands an end off. Each pin's parts
+  // move with it.
+  std::map<std::string, std::size_t> bought;  // part name → part
+  auto part_once = [&](PartKind kind, const std::string& name, const std::string& designation,
+                       Rgb colour, const std::function<TopoDS_Shape()>& make) {
+    auto it = bought.find(name);
+    if (it != bought.end()) return it->second;
+    const std::size_t part = b.part(kind, name, "steel", steel_density, colour, building(name, make));
+    m.infos[part].designation = designation;
+    bought.emplace(name, part);
+    return part;
+  };
   for (const PinPlan& s : hw.pins) {
-    const double back = s.z_back * mm_per_m, front = s.z_front * mm_per_m;
-    const double length = front - back;
-    std::size_t part = m.parts.size();
-    for (const auto& [len, idx] : pin_parts) {
-      if (std::abs(len - length) < 1e-6) part = idx;
-    }
-    if (part == m.parts.size()) {
-      const std::string name = "PIN-D" + num(2 * pin_r) + "x" + num(length);
-      part = b.part(PartKind::pin, name, "steel", steel_density, pin_colour,
-                    building("pin " + name, [&] { return make_rod(pin_r, -length / 2, length); }));
-      pin_parts.emplace_back(length, part);
-    }
+    const standard::PinSet& set = s.set;
+    const double d = set.pin.d * mm_per_m;
+    const std::string size = num(d) + "x" + num(set.length * mm_per_m);
+    const std::size_t pin_part = part_once(
+        PartKind::pin, "CLEVIS-PIN-" + size, set.pin_designation(), pin_colour, [&] {
+          return make_clevis_pin({d, set.pin.dk * mm_per_m, set.pin.k * mm_per_m, set.length * mm_per_m,
+                                  set.pin.d1 * mm_per_m, set.hole_at * mm_per_m});
+        });
+    const std::size_t washer_part = part_once(
+        PartKind::washer, "WASHER-" + num(d), set.washer_designation(), pin_colour, [&] {
+          return make_ring(set.washer.d1 * mm_per_m, set.washer.d2 * mm_per_m, 0, set.washer.h * mm_per_m);
+        });
+    const std::size_t split_part = part_once(
+        PartKind::split_pin, "SPLIT-PIN-" + num(set.split.nominal * mm_per_m) + "x" + num(set.split_length * mm_per_m),
+        set.split_designation(), pin_colour, [&] {
+          return make_split_pin(d, set.split.d * mm_per_m, set.split.c * mm_per_m);
+        });
+    // The pin's frame: z along the pin from the head's underside toward its end (flipped when the
+    // head is in front), x along the split-pin hole (toward the eye).
+    const double sign = s.head_front ? -1 : 1;
+    const double under_head = s.head_front ? (s.grip_front + s.sleeve_front) * mm_per_m
+                                           : (s.grip_back - s.sleeve_back) * mm_per_m;
+    gp_Trsf flip;
+    if (s.head_front) flip.SetRotation(gp_Ax1(gp_Pnt(0, 0, 0), gp_Dir(1, 0, 0)), std::numbers::pi);
+    const bool moves = s.on_lever && s.id != "PIVOT";
+    auto place = [&](double along, double extra_turn) {
+      // `along`: distance from the head's underside along the pin [mm].
+      gp_Trsf spin;
+      spin.SetRotation(gp_Ax1(gp_Pnt(0, 0, 0), gp_Dir(0, 0, 1)), s.split_angle * sign + extra_turn);
+      const gp_Trsf local = compose(flip, compose(translation(Vec2{0, 0}, along), spin));
+      const gp_Trsf world = moves ? compose(lever_place, translation(rel(mm(s.at)), under_head - lever_mid))
+                                  : translation(mm(s.at), under_head);
+      return compose(world, local);
+    };
     const std::string name = "PIN-" + s.id;
-    const double mid = (front + back) / 2;
-    // Lever pins move with the lever; the pivot pin and frame pins stay put.
-    const gp_Trsf place = s.on_lever && s.id != "PIVOT"
-                              ? compose(lever_place, translation(rel(mm(s.at)), mid - lever_mid))
-                              : translation(mm(s.at), mid);
-    b.instance(part, name, place);
+    // The drawing shows the pin without its hole and the split pin by its eye (Part::display).
+    if (m.parts[pin_part].display.IsNull()) {
+      m.parts[pin_part].display = building("pin " + name, [&] {
+        return make_clevis_pin({d, set.pin.dk * mm_per_m, set.pin.k * mm_per_m, set.length * mm_per_m,
+                                set.pin.d1 * mm_per_m, set.hole_at * mm_per_m},
+                               false);
+      });
+    }
+    if (m.parts[split_part].display.IsNull()) {
+      m.parts[split_part].display = building("split pin " + name, [&] {
+        return make_split_pin(d, set.split.d * mm_per_m, set.split.c * mm_per_m, false);
+      });
+    }
+    b.instance(pin_part, name, place(0, 0));
+    // The washer lies against the tail's face, the split pin through the hole.
+    const double tail_face = (s.grip_front - s.grip_back + s.sleeve_back + s.sleeve_front) * mm_per_m;
+    b.instance(washer_part, "WASHER-" + s.id, place(tail_face, 0));
+    b.instance(split_part, "SPLIT-PIN-" + s.id, place(set.hole_at * mm_per_m, 0));
+    touch(name, "WASHER-" + s.id);
+    touch(name, "SPLIT-PIN-" + s.id);
+    touch("WASHER-" + s.id, "SPLIT-PIN-" + s.id);
+    std::vector<std::string> holds;  // the plates it passes through
     if (s.carries_band) {
       const JointPlan* j = s.id == "A" ? &hw.joint_a : s.id == "B" ? &hw.joint_b : nullptr;
-      if (j && j->kind == JointKind::welded_block) {
-        touch(name, "END-BLOCK-" + s.id);
-      } else {
-        touch(name, "BAND");
+      holds.push_back(j && j->kind == JointKind::welded_block ? "END-BLOCK-" + s.id : "BAND");
+      // The band's edges lie flush with the end block's faces, where the head or washer bears.
+      if (j && j->kind == JointKind::welded_block) holds.push_back("BAND");
+    }
+    if (s.on_lever) holds.push_back("LEVER");
+    if (!s.bracket.empty()) {
+      holds.push_back(s.bracket);
+      for (const BracketPlan& br : hw.brackets) {
+        if (br.name == s.bracket && br.cheek) holds.push_back(s.bracket + "-FRONT");
       }
     }
-    if (s.on_lever) touch(name, "LEVER");
-    if (!s.bracket.empty()) {
-      touch(name, s.bracket);
-      for (const BracketPlan& br : hw.brackets) {
-        if (br.name == s.bracket && br.cheek) touch(name, s.bracket + "-FRONT");
-      }
+    for (const std::string& h : holds) {
+      touch(name, h);
+      touch("WASHER-" + s.id, h);  // bears on the outer plate
+    }
+    for (bool front : {false, true}) {
+      const double len = (front ? s.sleeve_front : s.sleeve_back) * mm_per_m;
+      if (len <= 0) continue;
+      const std::size_t sleeve_part = part_once(
+          PartKind::sleeve, "SLEEVE-" + num(d) + "x" + num(len), "spacer sleeve, steel tube Ø" +
+              num(s.sleeve_diameter * mm_per_m) + " × " + num((s.sleeve_diameter - set.pin.d) / 2 * mm_per_m) +
+              " wall, " + num(len) + " long",
+          pin_colour, [&] { return make_ring(d, s.sleeve_diameter * mm_per_m, 0, len); });
+      // Its near end on the pin's axis coordinate: from under the head (head side) or from the
+      // outer plate's face (tail side).
+      const bool head_side = front == s.head_front;
+      const double start = head_side ? 0 : (s.grip_front - s.grip_back + (front ? s.sleeve_back : s.sleeve_front)) * mm_per_m;
+      const std::string sleeve_name = std::string("SLEEVE-") + s.id + (front ? "-FRONT" : "-BACK");
+      b.instance(sleeve_part, sleeve_name, place(start, 0));
+      touch(sleeve_name, name);
+      touch(sleeve_name, "WASHER-" + s.id);
+      for (const std::string& h : holds) touch(sleeve_name, h);
     }
   }
 

@@ -15,6 +15,9 @@ const char* to_string(PartKind kind) {
     case PartKind::pin: return "pin";
     case PartKind::anchor: return "anchor";
     case PartKind::block: return "block";
+    case PartKind::washer: return "washer";
+    case PartKind::split_pin: return "split-pin";
+    case PartKind::sleeve: return "sleeve";
   }
   return "?";
 }

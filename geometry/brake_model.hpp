@@ -26,6 +26,9 @@ struct Rgb {
 struct PartInfo {
   std::string name;          ///< readable product name, e.g. "DRUM", "PIN-D16"
   std::string material;      ///< e.g. "cast-iron", "steel", "woven lining"
+  /// A bought part's standard designation ("Clevis pin ISO 2341 - B - 16 × 60 - St"), or what
+  /// a simple made part is cut from; empty for the other made parts.
+  std::string designation;
   double density = 0;        ///< [kg/m³]
   double volume = 0;         ///< one instance [mm³]
   double mass = 0;           ///< one instance [kg]

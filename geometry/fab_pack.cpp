@@ -194,8 +194,24 @@ FabPack make_fab_pack(const Design& design, const Solution& solution, const Brak
                                                "; bore for the pin, slot for the band end"));
   }
 
-  // Pins and the grip are sawn from round bar; their sizes and masses are the solids'.
-  for (const char* kind : {"pin", "grip"}) {
+  // Bought parts (clevis pins, washers, split pins): their standard designations, masses the
+  // solids'.
+  for (const char* kind : {"pin", "washer", "split-pin"}) {
+    for (std::size_t i : parts_of_kind(model, kind)) {
+      pack.rows.push_back({infos[i].name, "", infos[i].material, "bought", 0, 0, 0,
+                           static_cast<int>(infos[i].instance_names.size()), infos[i].mass,
+                           infos[i].designation + "; for " + joined(infos[i].instance_names)});
+    }
+  }
+  // Spacer sleeves are sawn from tube.
+  for (std::size_t i : parts_of_kind(model, "sleeve")) {
+    const BarSize s = bar_size(model, i);
+    pack.rows.push_back({infos[i].name, "", infos[i].material, "tube", s.diameter, s.length, s.diameter,
+                         static_cast<int>(infos[i].instance_names.size()), infos[i].mass,
+                         infos[i].designation + "; becomes " + joined(infos[i].instance_names)});
+  }
+  // The grip is sawn from round bar; its size and mass are the solid's.
+  for (const char* kind : {"grip"}) {
     for (std::size_t i : parts_of_kind(model, kind)) {
       const BarSize s = bar_size(model, i);
       // Mass from the bar size and the solid's density, so it holds without the model's checks.

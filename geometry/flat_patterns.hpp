@@ -84,7 +84,7 @@ struct CutListRow {
   std::string part;      ///< e.g. "BAND-BLANK", "PIN-D16x100"
   std::string file;      ///< DXF inside fab/, or "" for bar stock
   std::string material;
-  std::string stock;     ///< "plate", "strip", "sheet" or "round bar"
+  std::string stock;     ///< "plate", "strip", "sheet", "round bar", "tube" or "bought"
   double thickness = 0;  ///< plate thickness, or bar diameter [mm]
   double length = 0;     ///< blank length [mm]
   double width = 0;      ///< blank width; bar diameter for round bar [mm]

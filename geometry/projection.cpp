@@ -9,6 +9,7 @@
 #include <HLRBRep_HLRToShape.hxx>
 #include <Standard_Failure.hxx>
 #include <TopExp_Explorer.hxx>
+#include <TopLoc_Location.hxx>
 #include <TopoDS.hxx>
 #include <TopoDS_Compound.hxx>
 #include <TopoDS_Edge.hxx>
@@ -24,11 +25,33 @@
 #include "geometry/occt_model.hpp"
 #include "src/errors.hpp"
 
+// Cuts for section views (ProjectOptions::cut), defined at the end of this file.
+#include <BRepAdaptor_Surface.hxx>
+#include <BRepAlgoAPI_Cut.hxx>
+#include <BRepBndLib.hxx>
+#include <BRepPrimAPI_MakeBox.hxx>
+#include <BRepTools_WireExplorer.hxx>
+#include <gp_Pln.hxx>
+#include <Bnd_Box.hxx>
+#include <TopoDS_Face.hxx>
+#include <TopoDS_Wire.hxx>
+
 namespace bandforge::geom {
+
+namespace {
+TopoDS_Shape cut_for_section(const TopoDS_Shape& shape, const ViewSpec& view, Vec3 point,
+                             const std::string& instance, const std::string& kind,
+                             std::vector<SectionFace>& faces);
+}  // namespace
 
 ViewSpec front_view() { return {{0, 0, 1}, {1, 0, 0}, "front view"}; }
 ViewSpec left_view() { return {{-1, 0, 0}, {0, 0, 1}, "view from the left"}; }
 ViewSpec top_view() { return {{0, 1, 0}, {1, 0, 0}, "view from above"}; }
+// right = y × toward_viewer, normalised: (1, 0, −1)/√2; up = toward_viewer × right = (−1, 2, −1)/√6.
+ViewSpec isometric_view() {
+  const double d = 1 / std::sqrt(3.0), r = 1 / std::sqrt(2.0);
+  return {{d, d, d}, {r, 0, -r}, "isometric view"};
+}
 
 namespace {
 
@@ -221,6 +244,9 @@ ProjectedView project(const BrakeModel& model, const ViewSpec& view, const Proje
     builder.MakeCompound(all);
     int added = 0;
     for (const auto& placed : m.placed()) {
+      const TopoDS_Shape& display = m.parts.at(placed.part).display;
+      const TopoDS_Shape shown =
+          display.IsNull() ? placed.shape : display.Moved(TopLoc_Location(m.instances.at(placed.instance).placement));
       const std::string kind = to_string(m.parts.at(placed.part).kind);
       if (!options.kinds.empty() &&
           std::find(options.kinds.begin(), options.kinds.end(), kind) == options.kinds.end()) {
@@ -231,7 +257,14 @@ ProjectedView project(const BrakeModel& model, const ViewSpec& view, const Proje
               options.instances.end()) {
         continue;
       }
-      builder.Add(all, placed.shape);
+      if (options.cut) {
+        const TopoDS_Shape kept = cut_for_section(shown, view, options.cut_point,
+                                                  m.instances.at(placed.instance).name, kind, out.sections);
+        if (kept.IsNull()) continue;
+        builder.Add(all, kept);
+      } else {
+        builder.Add(all, shown);
+      }
       ++added;
     }
     if (added == 0) return out;
@@ -262,5 +295,71 @@ ProjectedView project(const BrakeModel& model, const ViewSpec& view, const Proje
       std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
   return out;
 }
+
+// ---- cuts for section views (ProjectOptions::cut) -------------------------------------------
+
+namespace {
+
+// The solid less a box that fills the viewer's side of the plane; the faces of the result that
+// lie in the plane are the section, returned as loops in view coordinates (the same projection
+// as the hidden-line removal: x along `right`, y along toward_viewer × right, origin at 0).
+TopoDS_Shape cut_for_section(const TopoDS_Shape& shape, const ViewSpec& view, Vec3 point,
+                             const std::string& instance, const std::string& kind,
+                             std::vector<SectionFace>& faces) {
+  const gp_Dir n(view.toward_viewer.x, view.toward_viewer.y, view.toward_viewer.z);
+  const gp_Dir right(view.right.x, view.right.y, view.right.z);
+  const gp_Dir up = n.Crossed(right);
+  const gp_Pnt p0(point.x, point.y, point.z);
+  Bnd_Box bb;
+  BRepBndLib::Add(shape, bb);
+  if (bb.IsVoid()) return {};
+  double x0, y0, z0, x1, y1, z1;
+  bb.Get(x0, y0, z0, x1, y1, z1);
+  // Large enough to cover the solid wherever the plane passes.
+  const double size = 2 * (std::hypot(x1 - x0, y1 - y0, z1 - z0) + p0.Distance(gp_Pnt(x0, y0, z0))) + 10;
+  const gp_Pnt corner = p0.Translated(gp_Vec(right) * (-size / 2)).Translated(gp_Vec(up) * (-size / 2));
+  const TopoDS_Shape box = BRepPrimAPI_MakeBox(gp_Ax2(corner, n, right), size, size, size).Shape();
+  BRepAlgoAPI_Cut cut(shape, box);
+  if (!cut.IsDone()) throw Standard_Failure("the section cut failed");
+  const TopoDS_Shape kept = cut.Shape();
+  if (kept.IsNull()) return {};
+  TopExp_Explorer solids(kept, TopAbs_SOLID);
+  if (!solids.More()) return {};
+  auto to2 = [&](const gp_Pnt& p) {
+    const gp_Vec v(p.XYZ());
+    return Point2{v.Dot(gp_Vec(right)), v.Dot(gp_Vec(up))};
+  };
+  SectionFace face_out;
+  face_out.instance = instance;
+  face_out.kind = kind;
+  for (TopExp_Explorer fx(kept, TopAbs_FACE); fx.More(); fx.Next()) {
+    const TopoDS_Face f = TopoDS::Face(fx.Current());
+    BRepAdaptor_Surface surf(f);
+    if (surf.GetType() != GeomAbs_Plane) continue;
+    const gp_Pln pln = surf.Plane();
+    if (!pln.Axis().Direction().IsParallel(n, 1e-9) || pln.Distance(p0) > 1e-6) continue;
+    for (TopExp_Explorer wx(f, TopAbs_WIRE); wx.More(); wx.Next()) {
+      std::vector<Point2> loop;
+      for (BRepTools_WireExplorer ex(TopoDS::Wire(wx.Current()), f); ex.More(); ex.Next()) {
+        BRepAdaptor_Curve c(ex.Current());
+        std::vector<gp_Pnt> pts;
+        if (c.GetType() == GeomAbs_Line) {
+          pts = {c.Value(c.FirstParameter()), c.Value(c.LastParameter())};
+        } else {
+          GCPnts_TangentialDeflection sampler(c, 0.05, 0.02);
+          for (int i = 1; i <= sampler.NbPoints(); ++i) pts.push_back(sampler.Value(i));
+        }
+        if (ex.Orientation() == TopAbs_REVERSED) std::reverse(pts.begin(), pts.end());
+        // Each edge without its last point: the next edge starts there.
+        for (std::size_t i = 0; i + 1 < pts.size(); ++i) loop.push_back(to2(pts[i]));
+      }
+      if (loop.size() >= 3) face_out.loops.push_back(std::move(loop));
+    }
+  }
+  if (!face_out.loops.empty()) faces.push_back(std::move(face_out));
+  return kept;
+}
+
+}  // namespace
 
 }  // namespace bandforge::geom

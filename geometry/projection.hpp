@@ -45,6 +45,12 @@ ViewSpec left_view();
 /// View from above (eye on +y); in first-angle projection it is placed below the front view.
 /// Paper right = +x, up = −z.
 ViewSpec top_view();
+/// Isometric view (ISO 5456-3 isometric axonometry): the eye on the space diagonal (1, 1, 1),
+/// the model's y axis upright on paper. It shows the front (+z, the face the front view shows),
+/// the right side (+x) and the top (+y); the x axis runs down to the right at 30°, z down to the
+/// left at 30°, y up, 120° apart, each foreshortened to √(2/3) (a true orthographic projection,
+/// not the simplified scale 1 that ISO 5456-3 also allows).
+ViewSpec isometric_view();
 
 struct ProjectOptions {
   bool hidden = true;  ///< also return hidden edges
@@ -53,12 +59,27 @@ struct ProjectOptions {
   std::vector<std::string> kinds;
   /// Only the instances of these names (PartInfo::instance_names); empty = all.
   std::vector<std::string> instances;
+  /// A cut (ISO 128-40): remove what lies on the viewer's side of the plane through `cut_point`
+  /// whose normal is the view's toward_viewer, before the hidden-line removal; the faces the
+  /// plane leaves come back in ProjectedView::sections.
+  bool cut = false;
+  Vec3 cut_point;  ///< a point of the cutting plane [mm], assembly coordinates
+};
+
+/// One face a cutting plane leaves on one instance, in view coordinates.
+struct SectionFace {
+  std::string instance;  ///< PartInfo::instance_names entry
+  std::string kind;      ///< its part kind ("drum", "band", ...)
+  /// Closed boundary loops (outer and holes; fill by the even-odd rule), first point not
+  /// repeated; curved edges as chords within 0.02 mm.
+  std::vector<std::vector<Point2>> loops;
 };
 
 struct ProjectedView {
   std::vector<ViewEdge> edges;
   Point2 min, max;   ///< bounding box of all returned edges [mm]
   double milliseconds = 0;  ///< wall time of the hidden-line removal and conversion
+  std::vector<SectionFace> sections;  ///< with ProjectOptions::cut: the cut faces
 };
 
 /// The kind of each part ("drum", "lining", "band", "lever", "grip", "pin", "anchor"), in the

@@ -7,6 +7,8 @@
 #include <BRepBuilderAPI_MakeEdge.hxx>
 #include <BRepBuilderAPI_MakeFace.hxx>
 #include <BRepBuilderAPI_MakeWire.hxx>
+#include <BRepAlgoAPI_Cut.hxx>
+#include <BRepAlgoAPI_Fuse.hxx>
 #include <BRepPrimAPI_MakeCylinder.hxx>
 #include <BRepPrimAPI_MakePrism.hxx>
 #include <BRepPrimAPI_MakeRevol.hxx>
@@ -224,6 +226,57 @@ TopoDS_Shape make_plate(const std::vector<Vec2>& centres, double radius,
 TopoDS_Shape make_rod(double radius, double z0, double length) {
   return BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(0, 0, z0), gp_Dir(0, 0, 1)), radius, length)
       .Shape();
+}
+
+namespace {
+
+// A solid of revolution about z from a closed polygon in the xz plane (x = radius).
+TopoDS_Shape revolve(const std::vector<gp_Pnt>& pts) {
+  BRepBuilderAPI_MakeWire mw;
+  for (std::size_t i = 0; i < pts.size(); ++i) {
+    mw.Add(BRepBuilderAPI_MakeEdge(pts[i], pts[(i + 1) % pts.size()]).Edge());
+  }
+  const TopoDS_Face face = BRepBuilderAPI_MakeFace(mw.Wire(), true).Face();
+  return BRepPrimAPI_MakeRevol(face, gp_Ax1(gp_Pnt(0, 0, 0), gp_Dir(0, 0, 1)), 2 * pi).Shape();
+}
+
+}  // namespace
+
+TopoDS_Shape make_clevis_pin(const ClevisPinDims& d, bool with_hole) {
+  const double r = d.d / 2, rk = d.dk / 2;
+  const TopoDS_Shape body = revolve({{0, 0, -d.k}, {rk, 0, -d.k}, {rk, 0, 0}, {r, 0, 0},
+                                     {r, 0, d.length}, {0, 0, d.length}});
+  if (!with_hole) return body;
+  const double over = r + 1;  // the hole's cylinder reaches past the shank on both sides
+  const TopoDS_Shape hole =
+      BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(-over, 0, d.hole_at), gp_Dir(1, 0, 0)), d.d1 / 2, 2 * over)
+          .Shape();
+  BRepAlgoAPI_Cut cut(body, hole);
+  if (!cut.IsDone()) throw Standard_Failure("the split-pin hole could not be cut");
+  return cut.Shape();
+}
+
+TopoDS_Shape make_ring(double inner_diameter, double outer_diameter, double z0, double height) {
+  const double ri = inner_diameter / 2, ro = outer_diameter / 2;
+  return revolve({{ri, 0, z0}, {ro, 0, z0}, {ro, 0, z0 + height}, {ri, 0, z0 + height}});
+}
+
+TopoDS_Shape make_split_pin(double pin_diameter, double leg_diameter, double eye_width, bool with_legs) {
+  const double r = pin_diameter / 2, rl = leg_diameter / 2;
+  const double legs_from = -r - leg_diameter, legs_to = r + leg_diameter / 2;  // into the eye
+  const TopoDS_Shape legs =
+      BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(legs_from, 0, 0), gp_Dir(1, 0, 0)), rl, legs_to - legs_from)
+          .Shape();
+  // The eye as a flat disc of its width and the wire's thickness: a torus would cost the
+  // drawing's hidden-line removal seconds for a part a few millimetres across.
+  const TopoDS_Shape eye =
+      BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(r + eye_width / 2, 0, -rl), gp_Dir(0, 0, 1)), eye_width / 2,
+                               leg_diameter)
+          .Shape();
+  if (!with_legs) return eye;
+  BRepAlgoAPI_Fuse fuse(legs, eye);
+  if (!fuse.IsDone()) throw Standard_Failure("the split pin's eye could not be joined to its legs");
+  return fuse.Shape();
 }
 
 }  // namespace bandforge::geom

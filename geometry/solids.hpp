@@ -77,4 +77,22 @@ TopoDS_Shape make_plate(const std::vector<Vec2>& centres, double radius,
 /// A cylinder of `radius` along z from z0 to z0 + length, axis through (0, 0).
 TopoDS_Shape make_rod(double radius, double z0, double length);
 
+/// ISO 2341 form B clevis pin in part coordinates: axis z, the head's underside at z = 0, head
+/// from −k to 0, shank to `length`, the split-pin hole along x at z = hole_at [mm].
+struct ClevisPinDims {
+  double d = 0, dk = 0, k = 0, length = 0, d1 = 0, hole_at = 0;
+};
+/// `with_hole` false: without the split-pin hole (the drawing's copies, see BuildOptions::drawing).
+TopoDS_Shape make_clevis_pin(const ClevisPinDims& d, bool with_hole = true);
+
+/// A flat ring (washer, spacer sleeve) about z from z0 to z0 + height [mm].
+TopoDS_Shape make_ring(double inner_diameter, double outer_diameter, double z0, double height);
+
+/// A split pin as fitted, simplified: its legs a rod of `leg_diameter` along x through a pin of
+/// `pin_diameter` on the z axis, cut where they bend back round it, and its eye a flat disc of
+/// `eye_width` beside the pin on +x, at z = 0 [mm].
+/// `with_legs` false: the eye alone (the drawing's copies).
+TopoDS_Shape make_split_pin(double pin_diameter, double leg_diameter, double eye_width,
+                            bool with_legs = true);
+
 }  // namespace bandforge::geom

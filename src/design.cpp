@@ -17,6 +17,43 @@ const char* to_string(BrakeKind k) {
   return "?";
 }
 
+const char* to_string(ApplyBy b) {
+  switch (b) {
+    case ApplyBy::hand: return "hand";
+    case ApplyBy::weight: return "weight";
+    case ApplyBy::spring: return "spring";
+  }
+  return "?";
+}
+
+const char* to_string(SpringEnds e) {
+  switch (e) {
+    case SpringEnds::plain: return "plain";
+    case SpringEnds::plain_ground: return "plain-ground";
+    case SpringEnds::squared: return "squared";
+    case SpringEnds::squared_ground: return "squared-ground";
+  }
+  return "?";
+}
+
+const char* to_string(SpringSeats s) {
+  switch (s) {
+    case SpringSeats::flat_flat: return "flat-flat";
+    case SpringSeats::flat_pivoted: return "flat-pivoted";
+    case SpringSeats::pivoted_pivoted: return "pivoted-pivoted";
+  }
+  return "?";
+}
+
+const char* to_string(HoistDrive d) {
+  switch (d) {
+    case HoistDrive::unspecified: return "";
+    case HoistDrive::powered: return "powered";
+    case HoistDrive::manual: return "manual";
+  }
+  return "?";
+}
+
 void design_fail(const Design& design, const std::string& key, const std::string& value,
                  const std::string& problem) {
   SourcePos pos;

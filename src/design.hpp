@@ -110,6 +110,13 @@ struct Load {
   double service_factor = 1.0;  ///< multiplies the required torque
 };
 
+/// What drives a hoist ([duty] drive): the hoist rules of REFERENCE §7 are for powered hoists.
+enum class HoistDrive {
+  unspecified,  ///< not said: solve() treats the hoist as powered (the safe assumption)
+  powered,      ///< a motor lifts and lowers: the holding brake must set itself (29 CFR 1910.179(f))
+  manual,       ///< hand-operated (a winch with a pawl): the hand brake controls the lowering
+};
+
 /// Optional thermal duty.
 struct Duty {
   bool present = false;
@@ -121,6 +128,39 @@ struct Duty {
   double rope_radius = 0.0;     ///< hoist rope radius on the brake shaft [m]
   double stops_per_hour = 0.0;  ///< [1/h]
   double ambient = 40.0;        ///< ambient temperature [°C]; default common practice
+  HoistDrive drive = HoistDrive::unspecified;  ///< hoist duty only: powered or manual
+};
+
+/// What applies the brake ([apply] by).
+enum class ApplyBy {
+  hand,    ///< the operator's force at the handle (the default)
+  weight,  ///< a weight hung on the lever; released by an actuator
+  spring,  ///< a helical compression spring between the lever and the frame; released by an actuator
+};
+
+/// How a compression spring's ends are finished (Shigley 9th ed. Table 10-1).
+enum class SpringEnds { plain, plain_ground, squared, squared_ground };
+
+/// How the spring's ends are held, for its buckling limit (Shigley 9th ed. eq. 10-13, α).
+enum class SpringSeats {
+  flat_flat,        ///< both ends on parallel flat plates (α = 0.5)
+  flat_pivoted,     ///< one end flat, one pivoted (α = 0.707)
+  pivoted_pivoted,  ///< both ends pivoted (α = 1)
+};
+
+/// The applying element and its release actuator ([apply]); REFERENCE §8.
+struct Apply {
+  ApplyBy by = ApplyBy::hand;
+  Vec2 at;                        ///< where the weight hangs or the spring acts on the lever [m]
+  Vec2 seat;                      ///< spring: its other end, on the frame (axis at→seat) [m]
+  double mass = 0.0;              ///< weight: the hanging mass [kg]
+  double wear_allowance = 0.0;    ///< radial lining wear the element must still cover [m]
+  Vec2 actuator_at;               ///< where the release actuator acts on the lever [m]
+  bool both_rotations = false;    ///< size for the worse drum rotation, not only the design one
+  std::string spring_material = "oil-tempered";  ///< key into the spring-wire table (src/spring.hpp)
+  SpringEnds spring_ends = SpringEnds::squared_ground;
+  SpringSeats spring_seats = SpringSeats::flat_pivoted;
+  double spring_max_outer_diameter = 0.0;  ///< room for the coils; 0 = no limit [m]
 };
 
 /// Early sizing without pin coordinates: arms as in textbook figures.
@@ -156,6 +196,7 @@ struct Design {
   Lever lever;
   Load load;
   Duty duty;
+  Apply apply;           ///< the [apply] block; by = hand when absent
   Concept concept_arms;  ///< the [concept] block; present => no pin layout, no geometry
   DrawingOptions drawing;
   /// Where each key was read, by dotted path ("band.end_a.at" → line 27, column 9), so that
@@ -170,5 +211,9 @@ struct Design {
 const char* to_string(Turn t);
 const char* to_string(Mount m);
 const char* to_string(BrakeKind k);
+const char* to_string(ApplyBy b);         ///< "hand", "weight", "spring" (the design-file values)
+const char* to_string(SpringEnds e);      ///< "plain", "plain-ground", "squared", "squared-ground"
+const char* to_string(SpringSeats s);     ///< "flat-flat", "flat-pivoted", "pivoted-pivoted"
+const char* to_string(HoistDrive d);      ///< "", "powered", "manual"
 
 }  // namespace bandforge

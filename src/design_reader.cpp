@@ -13,6 +13,7 @@
 
 #include "src/errors.hpp"
 #include "src/materials.hpp"
+#include "src/spring.hpp"
 #include "src/toml_schema.hpp"
 #include "src/units.hpp"
 
@@ -22,6 +23,9 @@ namespace {
 // A design file is a page of text; anything far larger is something else given by mistake.
 constexpr std::size_t kMaxFileBytes = 1 << 20;
 constexpr double kDefaultClearance = 0.0015;  // m; common practice, no source
+// [apply] wear_allowance when not given: half the lining thickness (common practice, no source:
+// a riveted lining is worn out well before the rivet heads reach the drum).
+constexpr double kDefaultWearFraction = 0.5;
 
 using schema::in_quotes;
 using schema::join;
@@ -50,7 +54,8 @@ class DesignReader : public schema::Reader {
 
   void read_root(const toml::table& root) {
     static const std::vector<std::string> kSections = {
-        "project", "drum", "lining", "band", "lever", "load", "duty", "concept", "drawing"};
+        "project", "drum", "lining", "band", "lever", "load", "duty", "concept", "drawing",
+        "apply"};
     check_sections(root, kSections, "[project] or [drum]");
 
     const Section project = section(root, "project");
@@ -62,6 +67,7 @@ class DesignReader : public schema::Reader {
     const Section duty = section(root, "duty");
     const Section concept_sec = section(root, "concept");
     const Section drawing = section(root, "drawing");
+    const Section apply = section(root, "apply");
     const bool is_concept = static_cast<bool>(concept_sec);
 
     if (!project) missing_section("project", "it gives at least the title, e.g. title = \"Hoist brake\"");
@@ -83,6 +89,136 @@ class DesignReader : public schema::Reader {
     if (duty) read_duty(duty, d_.duty);
     if (concept_sec) read_concept(concept_sec);
     if (drawing) read_drawing(drawing);
+    read_apply(apply, is_concept);
+  }
+
+  /// [apply]: what applies the brake (REFERENCE §8). Absent: by hand, today's behaviour.
+  void read_apply(const Section& s, bool is_concept) {
+    Apply& ap = d_.apply;
+    ap.at = d_.lever.handle;
+    ap.actuator_at = ap.at;
+    ap.wear_allowance = kDefaultWearFraction * d_.lining.thickness;
+    if (!s) return;
+    check_keys(s, {"by", "at", "seat", "mass", "wear_allowance", "actuator_at", "both_rotations",
+                   "spring_material", "spring_ends", "spring_seats", "spring_max_outer_diameter"});
+    if (auto by = choice(s, "by", {"hand", "weight", "spring"})) {
+      constexpr ApplyBy kinds[] = {ApplyBy::hand, ApplyBy::weight, ApplyBy::spring};
+      ap.by = kinds[*by];
+    }
+    // Keys that belong to another way of applying the brake.
+    static const char* const kWeightKeys[] = {"mass"};
+    static const char* const kSpringKeys[] = {"seat", "spring_material", "spring_ends",
+                                              "spring_seats", "spring_max_outer_diameter"};
+    const std::string by_text = in_quotes(to_string(ap.by));
+    if (ap.by == ApplyBy::hand) {
+      for (auto&& [k, v] : *s.table) {
+        if (k.str() == "by") continue;
+        bad_value(s, k.str(),
+                  std::string(k.str()) + " describes a weight or a spring, but the brake is applied by " +
+                      "hand (by = " + by_text + ", the default): give by = \"weight\" or \"spring\", "
+                      "or remove " + std::string(k.str()));
+      }
+      return;
+    }
+    for (const char* key : kSpringKeys) {
+      if (ap.by == ApplyBy::weight && node(s, key) != nullptr) {
+        bad_value(s, key, std::string(key) + " belongs to a spring (by = \"spring\"); a weight " +
+                          "(by = " + by_text + ") takes at, mass, wear_allowance, actuator_at and " +
+                          "both_rotations");
+      }
+    }
+    for (const char* key : kWeightKeys) {
+      if (ap.by == ApplyBy::spring && node(s, key) != nullptr) {
+        bad_value(s, key, std::string(key) + " belongs to a weight (by = \"weight\"); a spring " +
+                          "(by = " + by_text + ") takes at, seat, wear_allowance, actuator_at, " +
+                          "both_rotations and the spring_ keys");
+      }
+    }
+    if (is_concept) {
+      bad_value(s, "by", "a concept design has no lever coordinates to hang a weight or seat a "
+                         "spring on: remove [apply] (by hand), or describe the pin layout");
+    }
+    if (d_.load.given != Load::Given::torque) {
+      bad_value(s, "by", "a weight or a spring is sized for the torque the brake must hold: give "
+                         "[load] torque = \"...N*m\" instead of lever_force");
+    }
+    const Vec2 pivot = d_.lever.pivot;
+    auto at_pivot = [&](Vec2 p) { return std::hypot(p.x - pivot.x, p.y - pivot.y) < 1e-6; };
+    if (auto at = point(s, "at")) {
+      if (at_pivot(*at)) {
+        bad_value(s, "at", "the point is at lever.pivot and has no arm: give a point on the lever away "
+                           "from the pivot (default: lever.handle)");
+      }
+      ap.at = *at;
+    }
+    ap.actuator_at = ap.at;
+    if (auto act = point(s, "actuator_at")) {
+      if (at_pivot(*act)) {
+        bad_value(s, "actuator_at", "the release actuator at lever.pivot has no arm: give a point on "
+                                    "the lever away from the pivot (default: apply.at)");
+      }
+      ap.actuator_at = *act;
+    }
+    if (ap.by == ApplyBy::weight) {
+      ap.mass = positive(s, "mass", Quantity::mass, "the mass of the weight hung at apply.at");
+    } else {
+      const auto seat = point(s, "seat");
+      if (!seat) {
+        missing(s, "seat", "a spring needs its other end, on the frame, e.g. seat = [\"700 mm\", "
+                           "\"-480 mm\"] (the spring's axis runs from at to seat)");
+      }
+      if (std::hypot(seat->x - ap.at.x, seat->y - ap.at.y) < 1e-6) {
+        bad_value(s, "seat", "the seat is at apply.at: the spring needs a length between its two "
+                             "ends; put the seat on the frame away from apply.at");
+      }
+      ap.seat = *seat;
+    }
+    if (auto w = quantity(s, "wear_allowance", Quantity::length)) {
+      if (*w < 0.0 || *w > d_.lining.thickness) {
+        bad_value(s, "wear_allowance",
+                  "the radial wear the applying element must cover lies between \"0 mm\" and the "
+                  "lining thickness (" + format_quantity(d_.lining.thickness, Quantity::length, UnitSystem::si) +
+                  "); default half the thickness");
+      }
+      ap.wear_allowance = *w;
+    }
+    if (const toml::node* n = node(s, "both_rotations")) {
+      const auto* b = n->as_boolean();
+      if (b == nullptr) {
+        bad_value(s, "both_rotations", "expected true (size for the worse drum rotation: the load "
+                                       "can turn either way) or false (the design rotation only)");
+      }
+      ap.both_rotations = b->get();
+    }
+    if (auto m = string(s, "spring_material")) {
+      if (find_spring_wire(*m) == nullptr) {
+        std::vector<std::string> keys, quoted;
+        for (const auto& w : spring_wires()) {
+          keys.push_back(w.key);
+          quoted.push_back(in_quotes(w.key));
+        }
+        const std::string suggestion = nearest(*m, keys);
+        bad_value(s, "spring_material",
+                  "unknown spring wire" +
+                      (suggestion.empty() ? std::string() : "; did you mean " + in_quotes(suggestion) + "?") +
+                      "; valid: " + join(quoted) + " (Shigley 9th ed. Table 10-4)");
+      }
+      ap.spring_material = *m;
+    }
+    if (auto e = choice(s, "spring_ends", {"plain", "plain-ground", "squared", "squared-ground"})) {
+      constexpr SpringEnds ends[] = {SpringEnds::plain, SpringEnds::plain_ground,
+                                     SpringEnds::squared, SpringEnds::squared_ground};
+      ap.spring_ends = ends[*e];
+    }
+    if (auto e = choice(s, "spring_seats", {"flat-flat", "flat-pivoted", "pivoted-pivoted"})) {
+      constexpr SpringSeats seats[] = {SpringSeats::flat_flat, SpringSeats::flat_pivoted,
+                                       SpringSeats::pivoted_pivoted};
+      ap.spring_seats = seats[*e];
+    }
+    if (auto od = quantity(s, "spring_max_outer_diameter", Quantity::length)) {
+      must_be_positive(s, "spring_max_outer_diameter", *od, Quantity::length);
+      ap.spring_max_outer_diameter = *od;
+    }
   }
 
 
@@ -417,6 +553,20 @@ speed = "120 rpm"              # drum speed at the start of a stop (rpm, rad/s);
 inertia = "4 kg*m^2"           # rotating inertia reflected to the drum shaft (kg*m^2, lb*ft^2)
 stops_per_hour = 30            # bare number, stops per hour
 ambient = "30 °C"              # ambient temperature (°C, K, °F; default 40 °C)
+# drive = "powered"            # hoist duty only: "powered" (the default) or "manual" (hand-operated)
+
+# [apply]                      # optional: what applies the brake; left out = the operator's hand
+# by = "spring"                # "hand" (default), "weight" or "spring"; an actuator releases it
+# at = ["-450 mm", "-190 mm"]  # where the spring acts or the weight hangs on the lever (default: the handle)
+# seat = ["-450 mm", "-330 mm"]  # spring only: its other end, on the frame (the axis runs at → seat)
+# mass = "20 kg"               # weight only: the hanging mass
+# wear_allowance = "2 mm"      # radial lining wear still covered (default: half the lining thickness)
+# actuator_at = ["-300 mm", "-190 mm"]  # where the release actuator acts (default: at)
+# both_rotations = false       # true: size for the worse drum rotation (the load can reverse)
+# spring_material = "oil-tempered"  # "music-wire", "hard-drawn", "oil-tempered", "chrome-vanadium", "chrome-silicon"
+# spring_ends = "squared-ground"    # "plain", "plain-ground", "squared" or "squared-ground" (default)
+# spring_seats = "flat-pivoted"     # buckling: "flat-flat", "flat-pivoted" (default) or "pivoted-pivoted"
+# spring_max_outer_diameter = "80 mm"  # optional: room for the coils
 
 # [concept]                    # instead of end_a/end_b and pivot/handle: textbook arms, no geometry
 # kind = "simple"              # "simple", "differential" or "summing"

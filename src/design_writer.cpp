@@ -122,6 +122,26 @@ std::string design_toml(const Design& d, const std::string& header) {
     }
     if (du.stops_per_hour > 0) o << "stops_per_hour = " << num(du.stops_per_hour) << '\n';
     o << "ambient = " << q(du.ambient, 1.0, "°C") << '\n';
+    if (du.drive != HoistDrive::unspecified) o << "drive = \"" << to_string(du.drive) << "\"\n";
+  }
+
+  if (d.apply.by != ApplyBy::hand) {
+    const Apply& ap = d.apply;
+    o << "\n[apply]\n";
+    o << "by = \"" << to_string(ap.by) << "\"\n";
+    o << "at = " << point(ap.at) << '\n';
+    if (ap.by == ApplyBy::spring) o << "seat = " << point(ap.seat) << '\n';
+    if (ap.by == ApplyBy::weight) o << "mass = " << q(ap.mass, 1.0, "kg") << '\n';
+    o << "wear_allowance = " << len(ap.wear_allowance) << '\n';
+    o << "actuator_at = " << point(ap.actuator_at) << '\n';
+    if (ap.both_rotations) o << "both_rotations = true\n";
+    if (ap.by == ApplyBy::spring) {
+      o << "spring_material = " << str(ap.spring_material) << '\n';
+      o << "spring_ends = \"" << to_string(ap.spring_ends) << "\"\n";
+      o << "spring_seats = \"" << to_string(ap.spring_seats) << "\"\n";
+      if (ap.spring_max_outer_diameter > 0)
+        o << "spring_max_outer_diameter = " << len(ap.spring_max_outer_diameter) << '\n';
+    }
   }
 
   if (!d.drawing.sheet.empty() || d.drawing.scale_num > 0 || d.drawing.projection == Projection::third) {

@@ -21,7 +21,6 @@ using hardware_rules::axial_gap;
 using hardware_rules::clearance;
 using hardware_rules::grip_diameter;
 using hardware_rules::grip_length;
-using hardware_rules::pin_overhang;
 constexpr double pi = std::numbers::pi;
 
 // ---- Materials and limits of the generated parts -------------------------------------------
@@ -433,6 +432,327 @@ double distance_between_plates(const std::vector<Vec2>& a, double ra, const std:
   return std::max(0.0, d - ra - rb);
 }
 
+// ---- Pin heads and tails --------------------------------------------------------------------
+
+// Extra axial gaps the pins' heads and tails ask for, beyond hardware_rules::axial_gap [m].
+struct StackPush {
+  double behind = 0;  ///< brackets behind the band move further back
+  double lever = 0;   ///< the lever (and all in front of it) moves further forward
+  double front = 0;   ///< brackets and cheeks in front of the lever move further forward
+  std::string why;         ///< what the last widening was for
+  std::string unresolved;  ///< a head or tail that no gap makes room for
+  bool any() const { return behind > 1e-9 || lever > 1e-9 || front > 1e-9; }
+};
+
+// Something a pin's head or tail must keep clear of: the convex hull of discs of radius `r`
+// about `pts` (front view) between z0 and z1.
+struct Body {
+  enum class Layer { core, behind, lever, front };
+  std::string name;
+  std::vector<Vec2> pts;
+  double r = 0;
+  double z0 = 0, z1 = 0;
+  Layer layer = Layer::core;  ///< which push moves it away (core: none)
+  bool moves = false;         ///< turns with the lever (checked applied and released)
+  bool band = false;          ///< the band: its footprints instead of pts
+  int pin = -1;               ///< the pin it belongs to (its own shank or ends)
+};
+
+// Chooses for each pin its ISO 2341 set and which face its head goes on, so that the head and
+// the tail (washer, split pin) clear every other part; returns the gaps still to widen.
+StackPush place_pin_ends(HardwarePlan& plan, const Design& design, double turn,
+                         const std::vector<Footprint>& fps, double lever_w,
+                         const std::vector<Vec2>& lever_points, Vec2 handle, Vec2 pivot) {
+  const AxialPlan& ax = plan.axial;
+  constexpr double zc = 0.001;  // axial room left between a head or tail and the next part
+  // Side by side, parts that keep their places relative to each other need only a small gap
+  // (common practice, no source); parts that move past each other keep hardware_rules::clearance.
+  constexpr double steady_gap = 0.0005;
+  std::vector<Body> bodies;
+  bodies.push_back({"the drum", {{0, 0}}, design.drum.diameter / 2, ax.drum_back, ax.drum_front});
+  {
+    Body band{"the band", {}, 0, ax.band_back, ax.band_front};
+    band.band = true;
+    bodies.push_back(band);
+  }
+  for (const BracketPlan& br : plan.brackets) {
+    Body b{br.name, br.outline, br.half_width, br.z_back, br.z_front};
+    b.layer = br.side == BracketSide::behind ? Body::Layer::behind : Body::Layer::front;
+    bodies.push_back(b);
+    if (br.cheek) {
+      Body c{br.name + "-FRONT", br.outline, br.half_width, br.cheek_z_back, br.cheek_z_front};
+      c.layer = br.cheek_z_back > ax.lever_front - 1e-9 ? Body::Layer::front : Body::Layer::core;
+      bodies.push_back(c);
+    }
+  }
+  {
+    Body lever{"the lever", lever_points, lever_w / 2, ax.lever_back, ax.lever_front, Body::Layer::lever, true};
+    bodies.push_back(lever);
+    Body grip{"the grip", {handle}, hardware_rules::grip_diameter / 2, ax.lever_front, ax.grip_front,
+              Body::Layer::lever, true};
+    bodies.push_back(grip);
+  }
+  for (std::size_t i = 0; i < plan.pins.size(); ++i) {
+    const PinPlan& p = plan.pins[i];
+    Body shank{"pin " + p.id, {p.at}, p.set.pin.d / 2, p.grip_back, p.grip_front};
+    shank.moves = p.on_lever && p.id != "PIVOT";
+    shank.layer = shank.moves ? Body::Layer::lever : Body::Layer::core;
+    shank.pin = static_cast<int>(i);
+    bodies.push_back(shank);
+  }
+
+  auto placed = [&](const std::vector<Vec2>& pts, bool moves, double rot) {
+    if (!moves || rot == 0) return pts;
+    std::vector<Vec2> out;
+    for (Vec2 q : pts) out.push_back(rotate_about(q, pivot, rot));
+    return out;
+  };
+  // Front-view clearance between an end (disc at `c`, radius r) and a body, the worst over the
+  // applied and released states when one of them turns with the lever.
+  auto clearance_to = [&](Vec2 c, double r, bool end_moves, const Body& b) {
+    double least = 1e9;
+    const bool relative = end_moves != b.moves;
+    for (double rot : {0.0, turn}) {
+      if (rot != 0 && !relative) continue;
+      const Vec2 cc = end_moves ? rotate_about(c, pivot, rot) : c;
+      if (b.band) {
+        for (const Footprint& f : fps) least = std::min(least, disc_to_band(cc, r, f));
+      } else {
+        least = std::min(least, distance_to_plate(cc, placed(b.pts, b.moves, rot), b.r + r));
+      }
+    }
+    return least;
+  };
+
+  // What stands beyond a face of pin p: a spacer sleeve (when it has one on that side) and
+  // then the head or the tail. One segment of it: radius, axial extent.
+  struct Segment {
+    double r = 0, z0 = 0, z1 = 0;
+    bool sleeve = false;
+    Vec2 offset;  ///< centre from the pin's axis (the split pin's eye) [m]
+  };
+  auto ends_of = [&](const PinPlan& p) {
+    std::vector<std::pair<bool, Segment>> out;  // (head?, segment)
+    for (bool front : {false, true}) {
+      const bool head = front == p.head_front;
+      const double face = front ? p.grip_front : p.grip_back;
+      const double sl = front ? p.sleeve_front : p.sleeve_back;
+      const double sign = front ? 1 : -1;
+      if (sl > 0) {
+        const double e = face + sign * sl;
+        out.push_back({head, {p.sleeve_diameter / 2, std::min(face, e), std::max(face, e), true, {}}});
+      }
+      const double start = face + sign * sl;
+      const double reach = head ? p.set.head_reach() : p.set.tail_reach();
+      const double r = head ? p.set.pin.dk / 2 : p.set.washer.d2 / 2;
+      const double e = start + sign * reach;
+      out.push_back({head, {r, std::min(start, e), std::max(start, e), false, {}}});
+      if (!head) {
+        // The split pin's eye, a disc of its width beside the pin, toward `split_angle`; its legs
+        // bent back round the pin stay inside the washer.
+        const double off = p.set.pin.d / 2 + p.set.split.c / 2;
+        out.push_back({head, {p.set.split.c / 2, std::min(start, e), std::max(start, e), false,
+                              {off * std::cos(p.split_angle), off * std::sin(p.split_angle)}}});
+      }
+    }
+    return out;
+  };
+
+  // Every choice of head sides is tried (at most 2³): the pins' ends meet each other, so one
+  // pin's best side depends on the others'.
+  struct Outcome {
+    std::vector<PinPlan> pins;
+    StackPush extra;
+    int unresolved = 0;
+    double cost = 0;
+  };
+  auto run = [&](unsigned mask, const std::vector<std::size_t>& order) {
+  Outcome out;
+  out.pins = plan.pins;
+  StackPush& extra = out.extra;
+  for (std::size_t step = 0; step < order.size(); ++step) {
+    const std::size_t i = order[step];
+    PinPlan& p = out.pins[i];
+    const bool moves = p.on_lever && p.id != "PIVOT";
+    const double grip = p.grip_front - p.grip_back;
+    // A tube wall of 1.5 mm or 0.1 d (common practice, no source: a spacer carries only the
+    // washer's axial push), on a band-end pin no thicker than the band (it then clears the drum
+    // and the band as the band's eye does).
+    const double wall = std::max(0.0015, 0.1 * p.set.pin.d);
+    p.sleeve_diameter = p.set.pin.d + 2 * (p.carries_band ? std::min(wall, design.band.thickness) : wall);
+    struct Option {
+      bool head_front = false;
+      double sleeve_back = 0, sleeve_front = 0;
+      standard::PinSet set;
+      double cost = 0;
+      int unresolved = 0;
+      StackPush push;
+      std::string first_unresolved;
+      std::array<double, 2> past{0, 0};  ///< sleeve each end would need to pass what it meets
+    };
+    auto evaluate = [&](bool head_front, double sleeve_back, double sleeve_front) {
+      Option o;
+      o.head_front = head_front;
+      o.sleeve_back = sleeve_back;
+      o.sleeve_front = sleeve_front;
+      o.set = standard::choose_pin(design.band.pin_diameter, grip + sleeve_back + sleeve_front);
+      PinPlan trial = p;
+      trial.head_front = head_front;
+      trial.sleeve_back = sleeve_back;
+      trial.sleeve_front = sleeve_front;
+      trial.set = o.set;
+      // Only the drum's rim, standing beside a narrower band, and another pin's end are passed
+      // with a sleeve.
+      auto miss = [&](const std::string& text, bool front, double far, bool drum) {
+        ++o.unresolved;
+        if (o.first_unresolved.empty()) o.first_unresolved = text;
+        if (!drum) return;
+        const double face = front ? p.grip_front : p.grip_back;
+        o.past[front ? 1 : 0] = std::max(o.past[front ? 1 : 0], (front ? far - face : face - far) + zc);
+      };
+      for (const auto& [head, seg] : ends_of(trial)) {
+        const bool front = seg.z0 >= p.grip_front - 1e-9;
+        const std::string part = seg.sleeve ? "the spacer sleeve" : head ? "the head" : "the washer and split pin";
+        const std::string what = part + " of pin " + p.id + " (" + (front ? "front" : "back") + " face)";
+        for (const Body& b : bodies) {
+          if (b.pin == static_cast<int>(i)) continue;
+          // The plates it holds (and anything else within its grip) the ends only touch.
+          if (b.z0 >= p.grip_back - 1e-9 && b.z1 <= p.grip_front + 1e-9) continue;
+          // A band-carrying pin's sleeve is no thicker than the band's eye.
+          if (seg.sleeve && p.carries_band && (b.band || b.name == "the drum")) continue;
+          if (seg.z0 >= b.z1 + zc - 1e-12 || b.z0 >= seg.z1 + zc - 1e-12) continue;  // apart axially
+          const Vec2 centre{p.at.x + seg.offset.x, p.at.y + seg.offset.y};
+          const double c = clearance_to(centre, seg.r, moves, b);
+          // Beside another pin's shank that keeps its place relative to this one, a small gap.
+          const bool steady = b.pin >= 0 && (b.moves == moves || b.name == "pin PIVOT");
+          if (c >= (steady ? steady_gap : clearance)) continue;
+          double need = 0;
+          double* slot = nullptr;
+          if (!front && b.layer == Body::Layer::behind) {
+            need = b.z1 + zc - seg.z0;
+            slot = &o.push.behind;
+          } else if (!front && b.layer == Body::Layer::core && p.grip_back >= ax.lever_back - 1e-9) {
+            need = b.z1 + zc - seg.z0;
+            slot = &o.push.lever;
+          } else if (front && b.layer == Body::Layer::lever && !moves && p.grip_front < ax.lever_back + 1e-9) {
+            need = seg.z1 + zc - b.z0;
+            slot = &o.push.lever;
+          } else if (front && b.layer == Body::Layer::front && p.grip_front <= ax.grip_front + 1e-9) {
+            need = seg.z1 + zc - b.z0;
+            slot = &o.push.front;
+          }
+          if (slot) {
+            if (need > *slot) {
+              *slot = need;
+              o.push.why = what + " meets " + b.name + " across the axial gap";
+            }
+            o.cost += need;
+          } else {
+            miss(what + " meets " + b.name + ": move " + end_key(p.id) + " at least " +
+                     mm((steady ? steady_gap : clearance) - c + 0.0001) + " mm further from " +
+                     (b.pin >= 0 ? end_key(plan.pins[static_cast<std::size_t>(b.pin)].id) : b.name),
+                 front, front ? b.z1 : b.z0, b.name == "the drum");
+          }
+        }
+        // The other pins' ends already placed.
+        for (std::size_t e = 0; e < step; ++e) {
+          const PinPlan& q = out.pins[order[e]];
+          const bool q_moves = q.on_lever && q.id != "PIVOT";
+          for (const auto& [qhead, qseg] : ends_of(q)) {
+            if (seg.z0 >= qseg.z1 + zc - 1e-12 || qseg.z0 >= seg.z1 + zc - 1e-12) continue;
+            Body qb{std::string(qseg.sleeve ? "the spacer sleeve" : qhead ? "the head" : "the washer and split pin") +
+                        " of pin " + q.id,
+                    {{q.at.x + qseg.offset.x, q.at.y + qseg.offset.y}}, qseg.r, qseg.z0, qseg.z1};
+            qb.moves = q_moves;
+            // Ends that keep their places relative to each other need only a small gap (the
+            // pivot's stay at their distance from a lever pin as the lever turns).
+            const double need = q_moves == moves || q.id == "PIVOT" ? steady_gap : clearance;
+            const Vec2 centre{p.at.x + seg.offset.x, p.at.y + seg.offset.y};
+            const double c = clearance_to(centre, seg.r, moves, qb);
+            if (c >= need) continue;
+            // An end on the lever's back face and one below the lever: move the lever out.
+            const bool p_on_lever_back = !front && p.grip_back >= ax.lever_back - 1e-9 && qseg.z1 <= ax.lever_back + 1e-9;
+            const bool q_on_lever_back = front && p.grip_front <= ax.lever_back + 1e-9 && qseg.z0 >= ax.lever_back - 1e-9 &&
+                                         !moves;
+            if (p_on_lever_back || q_on_lever_back) {
+              const double widen = p_on_lever_back ? qseg.z1 + zc - seg.z0 : seg.z1 + zc - qseg.z0;
+              if (widen > o.push.lever) {
+                o.push.lever = widen;
+                o.push.why = what + " meets " + qb.name + " across the axial gap";
+              }
+              o.cost += widen;
+              continue;
+            }
+            miss(what + " meets " + qb.name + ": move " + end_key(p.id) + " at least " +
+                     mm(need - c + 0.0001) + " mm further from " + end_key(q.id),
+                 front, front ? qseg.z1 : qseg.z0, true);
+          }
+        }
+      }
+      return o;
+    };
+    auto worse = [](const Option& x, const Option& y) {
+      if (x.unresolved != y.unresolved) return x.unresolved > y.unresolved;
+      return x.cost + x.sleeve_back + x.sleeve_front > y.cost + y.sleeve_back + y.sleeve_front + 1e-9;
+    };
+    // A spacer sleeve takes an end past the drum's rim beside a narrower band.
+    const bool head_front = (mask >> i) & 1u;
+    // The split pin's eye: away from the drum's axis, else the first of eight directions that
+    // clears.
+    const double outward = std::atan2(p.at.y, p.at.x);
+    Option best;
+    double best_angle = outward;
+    for (int turn8 = 0; turn8 < 8; ++turn8) {
+      p.split_angle = outward + turn8 * pi / 4;
+      Option o = evaluate(head_front, 0, 0);
+      if (o.unresolved > 0) {
+        const Option sleeved = evaluate(head_front, o.past[0], o.past[1]);
+        if (worse(o, sleeved)) o = sleeved;
+      }
+      if (turn8 == 0 || worse(best, o)) {
+        best = o;
+        best_angle = p.split_angle;
+      }
+      if (best.unresolved == 0) break;
+    }
+    p.split_angle = best_angle;
+    p.head_front = best.head_front;
+    p.sleeve_back = best.sleeve_back;
+    p.sleeve_front = best.sleeve_front;
+    p.set = best.set;
+    const double k = p.set.head_reach(), tail = p.set.tail_reach();
+    p.z_back = p.grip_back - p.sleeve_back - (p.head_front ? tail : k);
+    p.z_front = p.grip_front + p.sleeve_front + (p.head_front ? k : tail);
+    extra.behind = std::max(extra.behind, best.push.behind);
+    extra.lever = std::max(extra.lever, best.push.lever);
+    extra.front = std::max(extra.front, best.push.front);
+    if (!best.push.why.empty()) extra.why = best.push.why;
+    if (best.unresolved > 0 && extra.unresolved.empty()) extra.unresolved = best.first_unresolved;
+    out.unresolved += best.unresolved;
+    out.cost += best.cost + best.sleeve_back + best.sleeve_front;
+  }
+  return out;
+  };
+  // Heads at the back and split pins in front, where they are seen and serviced (mask 0), unless
+  // another choice needs less.
+  std::optional<Outcome> chosen;
+  // The pin placed later gets the spacer sleeve when two pins' ends meet: every order is tried.
+  std::vector<std::size_t> order(plan.pins.size());
+  for (std::size_t i = 0; i < order.size(); ++i) order[i] = i;
+  do {
+    for (unsigned mask = 0; mask < (1u << plan.pins.size()); ++mask) {
+      Outcome o = run(mask, order);
+      if (!chosen || o.unresolved < chosen->unresolved ||
+          (o.unresolved == chosen->unresolved && o.cost < chosen->cost - 1e-9)) {
+        chosen = std::move(o);
+      }
+    }
+    if (chosen->unresolved == 0 && chosen->cost == 0) break;  // nothing to improve on
+  } while (std::next_permutation(order.begin(), order.end()));
+  plan.pins = chosen->pins;
+  return chosen->extra;
+}
+
 HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
   HardwarePlan plan;
   const Layout& L = solution.layout;
@@ -444,7 +764,8 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
 
   const double R = design.drum.diameter / 2;
   const double t = design.band.thickness, b = design.band.width;
-  const double pin_r = design.band.pin_diameter / 2;
+  // The pins as bought: the ISO 2341 nominal at least the design's diameter.
+  const double pin_r = standard::clevis_nominal(design.band.pin_diameter) / 2;
   const double lever_w = design.lever.width, lever_t = design.lever.thickness;
   const double eye_outer = pin_r + t;
   const double min_wall = std::max(0.002, 0.5 * pin_r);  // least material round a hole
@@ -683,350 +1004,383 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
     }
   }
 
-  // ---- Axial stack -------------------------------------------------------------------------
-  AxialPlan& ax = plan.axial;
-  ax.drum_back = -design.drum.width / 2;
-  ax.drum_front = design.drum.width / 2;
-  ax.band_back = -b / 2;
-  ax.band_front = b / 2;
-  ax.gap = axial_gap;
-  ax.pin_overhang = pin_overhang;
-  std::vector<Vec2> lever_points{handle};
-  for (const Hole& h : lever_holes) lever_points.push_back(h.at);
-  double lever_to_drum = 1e9;
-  for (double rot : {0.0, turn}) {
-    std::vector<Vec2> pts;
-    for (Vec2 p : lever_points) pts.push_back(rotate_about(p, pivot, rot));
-    lever_to_drum = std::min(lever_to_drum, distance_to_plate({0, 0}, pts, lever_w / 2));
-  }
-  ax.lever_outboard = lever_to_drum < R + clearance;
-  ax.lever_back = (ax.lever_outboard ? std::max(ax.band_front, ax.drum_front) : ax.band_front) + axial_gap;
-  ax.lever_front = ax.lever_back + lever_t;
-  ax.grip_front = ax.lever_front + grip_length;
-
-  // ---- Frame pins and their brackets -------------------------------------------------------
-  std::vector<FramePin> frame;
-  {
-    FramePin p;
-    p.id = "PIVOT";
-    p.at = pivot;
-    p.load = pivot_load(solution);
-    p.load_z = (ax.lever_back + ax.lever_front) / 2;
-    // Behind (on the frame side) unless the pin would then pass through the band or the drum.
-    double c = 1e9;
-    if (!pivot_carries_band) {
-      for (const Footprint& f : fps) c = std::min(c, disc_to_band(pivot, pin_r, f));
-      c = std::min(c, std::hypot(pivot.x, pivot.y) - pin_r - R);
+  // The axial stack, the brackets and the pins are planned in rounds: the pins' heads and tails
+  // (washer and split pin) stand beyond the plates they hold; where one would meet a part across
+  // an axial gap, the gap is widened (`push`) and the stack planned again.
+  const std::size_t checks_before = plan.checks.size();
+  const std::string refusal_before = plan.refusal;
+  StackPush push;
+  for (int round = 0;; ++round) {
+    plan.checks.resize(checks_before);
+    plan.refusal = refusal_before;
+    plan.brackets.clear();
+    plan.pins.clear();
+    // ---- Axial stack -------------------------------------------------------------------------
+    AxialPlan& ax = plan.axial;
+    ax.drum_back = -design.drum.width / 2;
+    ax.drum_front = design.drum.width / 2;
+    ax.band_back = -b / 2;
+    ax.band_front = b / 2;
+    ax.gap = axial_gap;
+    std::vector<Vec2> lever_points{handle};
+    for (const Hole& h : lever_holes) lever_points.push_back(h.at);
+    double lever_to_drum = 1e9;
+    for (double rot : {0.0, turn}) {
+      std::vector<Vec2> pts;
+      for (Vec2 p : lever_points) pts.push_back(rotate_about(p, pivot, rot));
+      lever_to_drum = std::min(lever_to_drum, distance_to_plate({0, 0}, pts, lever_w / 2));
     }
-    p.side = pivot_carries_band || c >= clearance ? BracketSide::behind : BracketSide::front;
-    const double away = std::atan2(pivot.y - handle.y, pivot.x - handle.x);
-    const double out = std::atan2(pivot.y, pivot.x);
-    const double dir = p.side == BracketSide::front ? away : out;
-    p.lug_dir = {std::cos(dir), std::sin(dir)};
-    frame.push_back(p);
-  }
-  for (bool a : {true, false}) {
-    const EndLayout& e = a ? L.a : L.b;
-    if (e.mount != Mount::frame || dist(e.pin, pivot) < 1e-6) continue;
-    FramePin p;
-    p.id = a ? "A" : "B";
-    p.at = e.pin;
-    p.load = end_tension(solution, a);
-    p.load_z = 0;
-    p.side = BracketSide::behind;
-    const double out = std::atan2(e.pin.y, e.pin.x);
-    p.lug_dir = {std::cos(out), std::sin(out)};
-    frame.push_back(p);
-  }
-  if (pivot_carries_band) {
+    ax.lever_outboard = lever_to_drum < R + clearance;
+    ax.lever_back = (ax.lever_outboard ? std::max(ax.band_front, ax.drum_front) : ax.band_front) + axial_gap + push.lever;
+    ax.lever_front = ax.lever_back + lever_t;
+    ax.grip_front = ax.lever_front + grip_length;
+
+    // ---- Frame pins and their brackets -------------------------------------------------------
+    std::vector<FramePin> frame;
+    {
+      FramePin p;
+      p.id = "PIVOT";
+      p.at = pivot;
+      p.load = pivot_load(solution);
+      p.load_z = (ax.lever_back + ax.lever_front) / 2;
+      // Behind (on the frame side) unless the pin would then pass through the band or the drum.
+      double c = 1e9;
+      if (!pivot_carries_band) {
+        for (const Footprint& f : fps) c = std::min(c, disc_to_band(pivot, pin_r, f));
+        c = std::min(c, std::hypot(pivot.x, pivot.y) - pin_r - R);
+      }
+      p.side = pivot_carries_band || c >= clearance ? BracketSide::behind : BracketSide::front;
+      const double away = std::atan2(pivot.y - handle.y, pivot.x - handle.x);
+      const double out = std::atan2(pivot.y, pivot.x);
+      const double dir = p.side == BracketSide::front ? away : out;
+      p.lug_dir = {std::cos(dir), std::sin(dir)};
+      frame.push_back(p);
+    }
     for (bool a : {true, false}) {
       const EndLayout& e = a ? L.a : L.b;
-      if (dist(e.pin, pivot) < 1e-6) frame.front().load = std::max(frame.front().load, end_tension(solution, a));
+      if (e.mount != Mount::frame || dist(e.pin, pivot) < 1e-6) continue;
+      FramePin p;
+      p.id = a ? "A" : "B";
+      p.at = e.pin;
+      p.load = end_tension(solution, a);
+      p.load_z = 0;
+      p.side = BracketSide::behind;
+      const double out = std::atan2(e.pin.y, e.pin.x);
+      p.lug_dir = {std::cos(out), std::sin(out)};
+      frame.push_back(p);
     }
-    frame.front().load_z = 0;
-  }
+    if (pivot_carries_band) {
+      for (bool a : {true, false}) {
+        const EndLayout& e = a ? L.a : L.b;
+        if (dist(e.pin, pivot) < 1e-6) frame.front().load = std::max(frame.front().load, end_tension(solution, a));
+      }
+      frame.front().load_z = 0;
+    }
 
-  // One lug per frame pin, pointing away from the drum (the pivot's in front of the lever:
-  // away from the handle); lugs that come close share one bracket.
-  const double lug = lever_w;  // lug length from the bore to the frame (common practice)
-  double half_width = lever_w / 2;
-  auto outline_of = [&](const std::vector<std::size_t>& g) {
-    std::vector<Vec2> pts;
-    for (std::size_t i : g) {
-      pts.push_back(frame[i].at);
-      pts.push_back(add(frame[i].at, frame[i].lug_dir, lug));
-    }
-    return pts;
-  };
-  // Order the members (A, B, PIVOT) for stable names.
-  auto rank = [&](std::size_t i) { return frame[i].id == "A" ? 0 : frame[i].id == "B" ? 1 : 2; };
-  // Lugs of plate half-width `hw` that come within the clearance of each other share a bracket.
-  auto make_groups = [&](double hw) {
-    std::vector<std::vector<std::size_t>> groups;
-    for (std::size_t i = 0; i < frame.size(); ++i) groups.push_back({i});
-    for (bool merged = true; merged;) {
-      merged = false;
-      for (std::size_t i = 0; i < groups.size() && !merged; ++i) {
-        for (std::size_t k = i + 1; k < groups.size() && !merged; ++k) {
-          if (frame[groups[i][0]].side != frame[groups[k][0]].side) continue;
-          const double d = distance_between_plates(outline_of(groups[i]), hw, outline_of(groups[k]), hw);
-          if (d < clearance) {
-            groups[i].insert(groups[i].end(), groups[k].begin(), groups[k].end());
-            groups.erase(groups.begin() + static_cast<std::ptrdiff_t>(k));
-            merged = true;
+    // One lug per frame pin, pointing away from the drum (the pivot's in front of the lever:
+    // away from the handle); lugs that come close share one bracket.
+    const double lug = lever_w;  // lug length from the bore to the frame (common practice)
+    double half_width = lever_w / 2;
+    auto outline_of = [&](const std::vector<std::size_t>& g) {
+      std::vector<Vec2> pts;
+      for (std::size_t i : g) {
+        pts.push_back(frame[i].at);
+        pts.push_back(add(frame[i].at, frame[i].lug_dir, lug));
+      }
+      return pts;
+    };
+    // Order the members (A, B, PIVOT) for stable names.
+    auto rank = [&](std::size_t i) { return frame[i].id == "A" ? 0 : frame[i].id == "B" ? 1 : 2; };
+    // Lugs of plate half-width `hw` that come within the clearance of each other share a bracket.
+    auto make_groups = [&](double hw) {
+      std::vector<std::vector<std::size_t>> groups;
+      for (std::size_t i = 0; i < frame.size(); ++i) groups.push_back({i});
+      for (bool merged = true; merged;) {
+        merged = false;
+        for (std::size_t i = 0; i < groups.size() && !merged; ++i) {
+          for (std::size_t k = i + 1; k < groups.size() && !merged; ++k) {
+            if (frame[groups[i][0]].side != frame[groups[k][0]].side) continue;
+            const double d = distance_between_plates(outline_of(groups[i]), hw, outline_of(groups[k]), hw);
+            if (d < clearance) {
+              groups[i].insert(groups[i].end(), groups[k].begin(), groups[k].end());
+              groups.erase(groups.begin() + static_cast<std::ptrdiff_t>(k));
+              merged = true;
+            }
           }
         }
       }
-    }
-    for (auto& g : groups) {
-      std::sort(g.begin(), g.end(), [&](std::size_t x, std::size_t y) { return rank(x) < rank(y); });
-    }
-    std::sort(groups.begin(), groups.end(), [&](const auto& x, const auto& y) { return rank(x[0]) < rank(y[0]); });
-    return groups;
-  };
+      for (auto& g : groups) {
+        std::sort(g.begin(), g.end(), [&](std::size_t x, std::size_t y) { return rank(x) < rank(y); });
+      }
+      std::sort(groups.begin(), groups.end(), [&](const auto& x, const auto& y) { return rank(x[0]) < rank(y[0]); });
+      return groups;
+    };
 
-  // The lever in both states and the grip, in the front view, for the cheeks' clearances.
-  std::vector<std::vector<Vec2>> lever_states;
-  for (double rot : {0.0, turn}) {
-    std::vector<Vec2> pts;
-    for (Vec2 p : lever_points) pts.push_back(rotate_about(p, pivot, rot));
-    lever_states.push_back(pts);
-  }
-  std::vector<Vec2> lever_pins;  // band-end pins on the lever, both states
-  for (const Hole& h : lever_holes) {
-    if (h.id == "PIVOT") continue;
-    lever_pins.push_back(h.at);
-    lever_pins.push_back(rotate_about(h.at, pivot, turn));
-  }
-  auto clears_lever = [&](const std::vector<Vec2>& outline, double hw) {
-    for (const auto& st : lever_states) {
-      if (distance_between_plates(outline, hw, st, lever_w / 2) < clearance) return false;
+    // The lever in both states and the grip, in the front view, for the cheeks' clearances.
+    std::vector<std::vector<Vec2>> lever_states;
+    for (double rot : {0.0, turn}) {
+      std::vector<Vec2> pts;
+      for (Vec2 p : lever_points) pts.push_back(rotate_about(p, pivot, rot));
+      lever_states.push_back(pts);
     }
-    return true;
-  };
-  auto clears_drum = [&](const std::vector<Vec2>& outline, double hw) {
-    return distance_to_plate({0, 0}, outline, hw) >= R + clearance;
-  };
-  auto near_grip = [&](const std::vector<Vec2>& outline, double hw) {
-    return distance_to_plate(handle, outline, hw) < grip_diameter / 2 + clearance;
-  };
-  // Where a group's front cheek can go: in front of the band (no lever pin in it, the lever and
-  // the lever pins clear of it), or in front of the lever (every other pin of the group clear of
-  // the lever, so that it can pass the lever's plane); none when neither fits.
-  // When no plate in the series carries the loads, a frame band end under the lever may still
-  // get its front cheek in front of the band, the lever then moved out in front of the cheek.
-  enum class Cheek { none, band_front, lever_front };
-  bool push_lever = false;
-  double lever_back_needed = 0;
-  auto cheek_for = [&](const std::vector<std::size_t>& g, double hw) {
-    const std::vector<Vec2> outline = outline_of(g);
-    if (frame[g[0]].side != BracketSide::behind) return Cheek::none;
-    bool has_pivot = false;
-    for (std::size_t i : g) has_pivot = has_pivot || frame[i].id == "PIVOT";
-    if (!has_pivot && (push_lever || clears_lever(outline, hw)) &&
-        (clears_drum(outline, hw) || ax.band_front + axial_gap >= ax.drum_front)) {
-      bool pins_clear = true;
-      for (Vec2 p : lever_pins) pins_clear = pins_clear && distance_to_plate(p, outline, hw) >= pin_r + clearance;
-      if (pins_clear) return Cheek::band_front;
+    std::vector<Vec2> lever_pins;  // band-end pins on the lever, both states
+    for (const Hole& h : lever_holes) {
+      if (h.id == "PIVOT") continue;
+      lever_pins.push_back(h.at);
+      lever_pins.push_back(rotate_about(h.at, pivot, turn));
     }
-    bool pass = true;
-    for (std::size_t i : g) {
-      if (frame[i].id == "PIVOT") continue;
+    auto clears_lever = [&](const std::vector<Vec2>& outline, double hw) {
       for (const auto& st : lever_states) {
-        pass = pass && distance_to_plate(frame[i].at, st, lever_w / 2) >= pin_r + clearance;
+        if (distance_between_plates(outline, hw, st, lever_w / 2) < clearance) return false;
       }
-    }
-    if (pass && (clears_drum(outline, hw) || ax.lever_front + axial_gap >= ax.drum_front)) {
-      return Cheek::lever_front;
-    }
-    return Cheek::none;
-  };
-
-  // Thickness from the stock series (at least the lever's plate), the same for every bracket
-  // (one plate stock), the least that passes every bore's checks.
-  auto bearing_check = [&](const std::string& pin, const std::string& title, double bearing,
-                           double fy, const std::string& note) {
-    plan.checks.push_back(make_check(
-        "bracket_bearing_" + pin, title, bearing, kBearingFactor * fy, "Pa", true,
-        std::string("0.90 F_y, pins in bored holes (AISC ASD 1989 J8.1, from memory); ") + kYieldSource,
-        note));
-  };
-  auto size_brackets = [&](double thick, double hw, bool record) {
-    bool ok = true;
-    std::vector<BracketPlan> out;
-    const double fy = s235_yield(thick);
-    for (const auto& g : make_groups(hw)) {
-      BracketPlan br;
-      br.side = frame[g[0]].side;
+      return true;
+    };
+    auto clears_drum = [&](const std::vector<Vec2>& outline, double hw) {
+      return distance_to_plate({0, 0}, outline, hw) >= R + clearance;
+    };
+    auto near_grip = [&](const std::vector<Vec2>& outline, double hw) {
+      return distance_to_plate(handle, outline, hw) < grip_diameter / 2 + clearance;
+    };
+    // Where a group's front cheek can go: in front of the band (no lever pin in it, the lever and
+    // the lever pins clear of it), or in front of the lever (every other pin of the group clear of
+    // the lever, so that it can pass the lever's plane); none when neither fits.
+    // When no plate in the series carries the loads, a frame band end under the lever may still
+    // get its front cheek in front of the band, the lever then moved out in front of the cheek.
+    enum class Cheek { none, band_front, lever_front };
+    bool push_lever = false;
+    double lever_back_needed = 0;
+    auto cheek_for = [&](const std::vector<std::size_t>& g, double hw) {
+      const std::vector<Vec2> outline = outline_of(g);
+      if (frame[g[0]].side != BracketSide::behind) return Cheek::none;
+      bool has_pivot = false;
+      for (std::size_t i : g) has_pivot = has_pivot || frame[i].id == "PIVOT";
+      if (!has_pivot && (push_lever || clears_lever(outline, hw)) &&
+          (clears_drum(outline, hw) || ax.band_front + axial_gap >= ax.drum_front)) {
+        bool pins_clear = true;
+        for (Vec2 p : lever_pins) pins_clear = pins_clear && distance_to_plate(p, outline, hw) >= pin_r + clearance;
+        if (pins_clear) return Cheek::band_front;
+      }
+      bool pass = true;
       for (std::size_t i : g) {
-        br.pins.push_back(frame[i].id);
-        br.holes.push_back(frame[i].at);
-      }
-      br.name = g.size() == 1 ? "ANCHOR-" + frame[g[0]].id : "BRACKET";
-      if (g.size() > 1) {
-        for (std::size_t i : g) br.name += "-" + frame[i].id;
-      }
-      br.outline = outline_of(g);
-      br.half_width = hw;
-      br.thickness = thick;
-      if (br.side == BracketSide::behind) {
-        const bool crosses_drum = !clears_drum(br.outline, hw);
-        br.behind_drum = crosses_drum && ax.drum_back < ax.band_back;
-        br.z_front = (br.behind_drum ? ax.drum_back : ax.band_back) - axial_gap;
-        br.z_back = br.z_front - thick;
-      } else {
-        // In front of the lever; beyond the grip when the plate would reach it.
-        br.z_back = (near_grip(br.outline, hw) ? ax.grip_front : ax.lever_front) + axial_gap;
-        br.z_front = br.z_back + thick;
-      }
-      const Cheek cheek = cheek_for(g, hw);
-      if (cheek != Cheek::none) {
-        br.cheek = true;
-        const double base = cheek == Cheek::band_front ? ax.band_front : ax.lever_front;
-        br.cheek_z_back = (cheek == Cheek::lever_front && near_grip(br.outline, hw) ? ax.grip_front : base) + axial_gap;
-        br.cheek_z_front = br.cheek_z_back + thick;
-        if (cheek == Cheek::band_front && !clears_lever(br.outline, hw)) {
-          lever_back_needed = std::max(lever_back_needed, br.cheek_z_front + axial_gap);
+        if (frame[i].id == "PIVOT") continue;
+        for (const auto& st : lever_states) {
+          pass = pass && distance_to_plate(frame[i].at, st, lever_w / 2) >= pin_r + clearance;
         }
       }
-      const double mid = (br.z_back + br.z_front) / 2;
-      const double cheek_mid = (br.cheek_z_back + br.cheek_z_front) / 2;
-      const double net = 2 * hw - 2 * pin_r;
-      for (std::size_t i : g) {
-        const double F = frame[i].load, zl = frame[i].load_z;
-        br.loads.push_back(F);
-        const std::string who = br.name + ", bore " + frame[i].id;
-        if (br.cheek) {
-          // Two cheeks: the pin a beam on two supports, each cheek loaded in its plane by the
-          // lever rule about the load line.
-          const double span = cheek_mid - mid;
-          const double f_back = F * (cheek_mid - zl) / span, f_front = F * (zl - mid) / span;
-          br.offsets.push_back(0);
-          const double worst = std::max(f_back, f_front);
-          const double bearing = worst / (2 * pin_r * thick), tension = worst / (net * thick);
-          ok = ok && bearing <= kBearingFactor * fy && tension <= kPinPlateTension * fy;
-          if (record) {
-            const std::string note = "worst load " + std::to_string(static_cast<long>(std::lround(F))) +
-                                     " N shared by two " + mm(thick, 0) + " mm cheeks " + mm(span) +
-                                     " mm apart: " + std::to_string(static_cast<long>(std::lround(f_back))) +
-                                     " N back, " + std::to_string(static_cast<long>(std::lround(f_front))) +
-                                     " N front";
-            bearing_check(frame[i].id, who + ": bore bearing pressure p = F_cheek/(d·t)", bearing, fy, note);
-            plan.checks.push_back(make_check(
-                "bracket_net_" + frame[i].id, who + ": cheek net section at the bore σ = F_cheek/((w − d)·t)",
-                tension, kPinPlateTension * fy, "Pa", true,
-                std::string("0.45 F_y, pin-connected part (AISC ASD 1989 D3.1, from memory); ") + kYieldSource,
-                note));
-          }
+      if (pass && (clears_drum(outline, hw) || ax.lever_front + axial_gap >= ax.drum_front)) {
+        return Cheek::lever_front;
+      }
+      return Cheek::none;
+    };
+
+    // Thickness from the stock series (at least the lever's plate), the same for every bracket
+    // (one plate stock), the least that passes every bore's checks.
+    auto bearing_check = [&](const std::string& pin, const std::string& title, double bearing,
+                             double fy, const std::string& note) {
+      plan.checks.push_back(make_check(
+          "bracket_bearing_" + pin, title, bearing, kBearingFactor * fy, "Pa", true,
+          std::string("0.90 F_y, pins in bored holes (AISC ASD 1989 J8.1, from memory); ") + kYieldSource,
+          note));
+    };
+    auto size_brackets = [&](double thick, double hw, bool record) {
+      bool ok = true;
+      std::vector<BracketPlan> out;
+      const double fy = s235_yield(thick);
+      for (const auto& g : make_groups(hw)) {
+        BracketPlan br;
+        br.side = frame[g[0]].side;
+        for (std::size_t i : g) {
+          br.pins.push_back(frame[i].id);
+          br.holes.push_back(frame[i].at);
+        }
+        br.name = g.size() == 1 ? "ANCHOR-" + frame[g[0]].id : "BRACKET";
+        if (g.size() > 1) {
+          for (std::size_t i : g) br.name += "-" + frame[i].id;
+        }
+        br.outline = outline_of(g);
+        br.half_width = hw;
+        br.thickness = thick;
+        if (br.side == BracketSide::behind) {
+          const bool crosses_drum = !clears_drum(br.outline, hw);
+          br.behind_drum = crosses_drum && ax.drum_back < ax.band_back;
+          br.z_front = (br.behind_drum ? ax.drum_back : ax.band_back) - axial_gap - push.behind;
+          br.z_back = br.z_front - thick;
         } else {
-          br.offsets.push_back(std::abs(zl - mid));
-          const double bearing = F / (2 * pin_r * thick);
-          const double bending = 6 * F * br.offsets.back() / (net * thick * thick);
-          ok = ok && bearing <= kBearingFactor * fy && bending <= kBendingFactor * fy;
-          if (record) {
-            const std::string note = "worst load " + std::to_string(static_cast<long>(std::lround(F))) +
-                                     " N on one " + mm(thick, 0) + " mm plate, load line " +
-                                     mm(br.offsets.back()) + " mm from its mid-plane";
-            bearing_check(frame[i].id, who + ": bore bearing pressure p = F/(d·t)", bearing, fy, note);
-            plan.checks.push_back(make_check(
-                "bracket_bending_" + frame[i].id,
-                who + ": plate bending at the bore σ = 6·F·e/((w − d)·t²), overhung pin",
-                bending, kBendingFactor * fy, "Pa", true,
-                std::string("0.60 F_y (AISC ASD 1989 F1, from memory); ") + kYieldSource +
-                    "; formula: elementary beam bending (Shigley 9th ed. §3-10)",
-                note));
+          // In front of the lever; beyond the grip when the plate would reach it.
+          br.z_back = (near_grip(br.outline, hw) ? ax.grip_front : ax.lever_front) + axial_gap + push.front;
+          br.z_front = br.z_back + thick;
+        }
+        const Cheek cheek = cheek_for(g, hw);
+        if (cheek != Cheek::none) {
+          br.cheek = true;
+          const double base = cheek == Cheek::band_front ? ax.band_front : ax.lever_front;
+          br.cheek_z_back = (cheek == Cheek::lever_front && near_grip(br.outline, hw) ? ax.grip_front : base) + axial_gap +
+                             (cheek == Cheek::lever_front ? push.front : 0.0);
+          br.cheek_z_front = br.cheek_z_back + thick;
+          if (cheek == Cheek::band_front && !clears_lever(br.outline, hw)) {
+            lever_back_needed = std::max(lever_back_needed, br.cheek_z_front + axial_gap + push.lever);
+          }
+        }
+        const double mid = (br.z_back + br.z_front) / 2;
+        const double cheek_mid = (br.cheek_z_back + br.cheek_z_front) / 2;
+        const double net = 2 * hw - 2 * pin_r;
+        for (std::size_t i : g) {
+          const double F = frame[i].load, zl = frame[i].load_z;
+          br.loads.push_back(F);
+          const std::string who = br.name + ", bore " + frame[i].id;
+          if (br.cheek) {
+            // Two cheeks: the pin a beam on two supports, each cheek loaded in its plane by the
+            // lever rule about the load line.
+            const double span = cheek_mid - mid;
+            const double f_back = F * (cheek_mid - zl) / span, f_front = F * (zl - mid) / span;
+            br.offsets.push_back(0);
+            const double worst = std::max(f_back, f_front);
+            const double bearing = worst / (2 * pin_r * thick), tension = worst / (net * thick);
+            ok = ok && bearing <= kBearingFactor * fy && tension <= kPinPlateTension * fy;
+            if (record) {
+              const std::string note = "worst load " + std::to_string(static_cast<long>(std::lround(F))) +
+                                       " N shared by two " + mm(thick, 0) + " mm cheeks " + mm(span) +
+                                       " mm apart: " + std::to_string(static_cast<long>(std::lround(f_back))) +
+                                       " N back, " + std::to_string(static_cast<long>(std::lround(f_front))) +
+                                       " N front";
+              bearing_check(frame[i].id, who + ": bore bearing pressure p = F_cheek/(d·t)", bearing, fy, note);
+              plan.checks.push_back(make_check(
+                  "bracket_net_" + frame[i].id, who + ": cheek net section at the bore σ = F_cheek/((w − d)·t)",
+                  tension, kPinPlateTension * fy, "Pa", true,
+                  std::string("0.45 F_y, pin-connected part (AISC ASD 1989 D3.1, from memory); ") + kYieldSource,
+                  note));
+            }
+          } else {
+            br.offsets.push_back(std::abs(zl - mid));
+            const double bearing = F / (2 * pin_r * thick);
+            const double bending = 6 * F * br.offsets.back() / (net * thick * thick);
+            ok = ok && bearing <= kBearingFactor * fy && bending <= kBendingFactor * fy;
+            if (record) {
+              const std::string note = "worst load " + std::to_string(static_cast<long>(std::lround(F))) +
+                                       " N on one " + mm(thick, 0) + " mm plate, load line " +
+                                       mm(br.offsets.back()) + " mm from its mid-plane";
+              bearing_check(frame[i].id, who + ": bore bearing pressure p = F/(d·t)", bearing, fy, note);
+              plan.checks.push_back(make_check(
+                  "bracket_bending_" + frame[i].id,
+                  who + ": plate bending at the bore σ = 6·F·e/((w − d)·t²), overhung pin",
+                  bending, kBendingFactor * fy, "Pa", true,
+                  std::string("0.60 F_y (AISC ASD 1989 F1, from memory); ") + kYieldSource +
+                      "; formula: elementary beam bending (Shigley 9th ed. §3-10)",
+                  note));
+            }
+          }
+        }
+        out.push_back(br);
+      }
+      return std::make_pair(ok, out);
+    };
+    double thick = 0;
+    bool sized = false;
+    const double base_half_width = half_width;
+    auto search = [&] {
+      for (double hw_factor : {1.0, 1.25, 1.5, 2.0, 2.5, 3.0}) {
+        const double hw = base_half_width * hw_factor;
+        for (double s : kPlateSeries) {
+          if (s < lever_t - 1e-12) continue;
+          lever_back_needed = 0;
+          if (size_brackets(s, hw, false).first) {
+            thick = s;
+            half_width = hw;
+            return true;
           }
         }
       }
-      out.push_back(br);
-    }
-    return std::make_pair(ok, out);
-  };
-  double thick = 0;
-  bool sized = false;
-  const double base_half_width = half_width;
-  auto search = [&] {
-    for (double hw_factor : {1.0, 1.25, 1.5, 2.0, 2.5, 3.0}) {
-      const double hw = base_half_width * hw_factor;
-      for (double s : kPlateSeries) {
-        if (s < lever_t - 1e-12) continue;
+      return false;
+    };
+    sized = search();
+    if (!sized) {
+      // Cheeks in front of the band under the lever, the lever moved out to make room; the
+      // positions in front of the lever follow it, so settle the stack before the final sizing.
+      push_lever = true;
+      for (int settle = 0; settle < 4; ++settle) {
+        sized = search();
+        if (!sized) break;
         lever_back_needed = 0;
-        if (size_brackets(s, hw, false).first) {
-          thick = s;
-          half_width = hw;
-          return true;
-        }
+        size_brackets(thick, half_width, false);
+        if (lever_back_needed <= ax.lever_back + 1e-12) break;
+        ax.lever_back = lever_back_needed;
+        ax.lever_front = ax.lever_back + lever_t;
+        ax.grip_front = ax.lever_front + grip_length;
+        ax.lever_outboard = true;
       }
     }
-    return false;
-  };
-  sized = search();
-  if (!sized) {
-    // Cheeks in front of the band under the lever, the lever moved out to make room; the
-    // positions in front of the lever follow it, so settle the stack before the final sizing.
-    push_lever = true;
-    for (int round = 0; round < 4; ++round) {
-      sized = search();
-      if (!sized) break;
-      lever_back_needed = 0;
-      size_brackets(thick, half_width, false);
-      if (lever_back_needed <= ax.lever_back + 1e-12) break;
-      ax.lever_back = lever_back_needed;
-      ax.lever_front = ax.lever_back + lever_t;
-      ax.grip_front = ax.lever_front + grip_length;
-      ax.lever_outboard = true;
+    if (!sized) {
+      // Nothing in the stock carries the loads: the largest plates are built and their checks
+      // fail on the calculation sheet, like any other part that is too weak for its loads.
+      thick = std::max(lever_t, kPlateSeries[std::size(kPlateSeries) - 1]);
+      half_width = base_half_width * 3.0;
     }
-  }
-  if (!sized) {
-    // Nothing in the stock carries the loads: the largest plates are built and their checks
-    // fail on the calculation sheet, like any other part that is too weak for its loads.
-    thick = std::max(lever_t, kPlateSeries[std::size(kPlateSeries) - 1]);
-    half_width = base_half_width * 3.0;
-  }
-  plan.brackets = size_brackets(thick, half_width, true).second;
+    plan.brackets = size_brackets(thick, half_width, true).second;
 
-  // ---- Pins ------------------------------------------------------------------------------
-  auto bracket_of = [&](const std::string& id) -> const BracketPlan* {
-    for (const BracketPlan& br : plan.brackets) {
-      if (std::find(br.pins.begin(), br.pins.end(), id) != br.pins.end()) return &br;
+    // ---- Pins ------------------------------------------------------------------------------
+    auto bracket_of = [&](const std::string& id) -> const BracketPlan* {
+      for (const BracketPlan& br : plan.brackets) {
+        if (std::find(br.pins.begin(), br.pins.end(), id) != br.pins.end()) return &br;
+      }
+      return nullptr;
+    };
+    for (bool a : {true, false}) {
+      const EndLayout& e = a ? L.a : L.b;
+      if (dist(e.pin, pivot) < 1e-6) continue;
+      PinPlan p;
+      p.id = a ? "A" : "B";
+      p.at = e.pin;
+      p.carries_band = true;
+      p.on_lever = e.mount == Mount::lever;
+      if (p.on_lever) {
+        p.z_back = ax.band_back;
+        p.z_front = ax.lever_front;
+      } else {
+        const BracketPlan* br = bracket_of(p.id);
+        p.bracket = br ? br->name : "";
+        p.z_back = br ? br->z_back : ax.band_back;
+        p.z_front = br && br->cheek ? br->cheek_z_front : ax.band_front;
+      }
+      plan.pins.push_back(p);
     }
-    return nullptr;
-  };
-  for (bool a : {true, false}) {
-    const EndLayout& e = a ? L.a : L.b;
-    if (dist(e.pin, pivot) < 1e-6) continue;
-    PinPlan p;
-    p.id = a ? "A" : "B";
-    p.at = e.pin;
-    p.carries_band = true;
-    p.on_lever = e.mount == Mount::lever;
-    if (p.on_lever) {
-      p.z_back = ax.band_back - pin_overhang;
-      p.z_front = ax.lever_front + pin_overhang;
-    } else {
-      const BracketPlan* br = bracket_of(p.id);
+    {
+      PinPlan p;
+      p.id = "PIVOT";
+      p.at = pivot;
+      p.on_lever = true;
+      p.carries_band = pivot_carries_band;
+      const BracketPlan* br = bracket_of("PIVOT");
       p.bracket = br ? br->name : "";
-      p.z_back = (br ? br->z_back : ax.band_back) - pin_overhang;
-      p.z_front = (br && br->cheek ? br->cheek_z_front : ax.band_front) + pin_overhang;
+      if (br && br->side == BracketSide::front) {
+        p.z_back = ax.lever_back;
+        p.z_front = br->z_front;
+      } else {
+        p.z_back = br ? br->z_back : ax.band_back;
+        p.z_front = br && br->cheek ? br->cheek_z_front : ax.lever_front;
+      }
+      plan.pins.push_back(p);
     }
-    plan.pins.push_back(p);
-  }
-  {
-    PinPlan p;
-    p.id = "PIVOT";
-    p.at = pivot;
-    p.on_lever = true;
-    p.carries_band = pivot_carries_band;
-    const BracketPlan* br = bracket_of("PIVOT");
-    p.bracket = br ? br->name : "";
-    if (br && br->side == BracketSide::front) {
-      p.z_back = ax.lever_back - pin_overhang;
-      p.z_front = br->z_front + pin_overhang;
-    } else {
-      p.z_back = (br ? br->z_back : ax.band_back) - pin_overhang;
-      p.z_front = (br && br->cheek ? br->cheek_z_front : ax.lever_front) + pin_overhang;
+
+    // The pins as bought: ISO 2341 B clevis pins for the plates they hold, then their heads
+    // and tails placed.
+    for (PinPlan& p : plan.pins) {
+      p.grip_back = p.z_back;
+      p.grip_front = p.z_front;
+      p.set = standard::choose_pin(design.band.pin_diameter, p.grip_front - p.grip_back);
     }
-    plan.pins.push_back(p);
+    const StackPush extra = place_pin_ends(plan, design, turn, fps, lever_w, lever_points, handle, pivot);
+    if (!extra.any() || round >= 4) {
+      if (extra.any()) {
+        refuse("cannot fit the pins' heads and split pins: " + extra.why + ", still after " +
+               std::to_string(round) + " widenings");
+      } else if (!extra.unresolved.empty()) {
+        refuse("cannot fit the pins' heads and split pins: " + extra.unresolved);
+      }
+      break;
+    }
+    push.behind += extra.behind;
+    push.lever += extra.lever;
+    push.front += extra.front;
   }
   return plan;
 }

@@ -13,6 +13,7 @@
 
 #include "src/check.hpp"
 #include "src/design.hpp"
+#include "src/standard_parts.hpp"
 
 namespace bandforge {
 
@@ -25,8 +26,8 @@ struct AxialPlan {
   double band_back = 0, band_front = 0;    ///< band and lining (±b/2)
   double lever_back = 0, lever_front = 0;  ///< lever plate
   double grip_front = 0;                   ///< front end of the handle grip
-  double gap = 0;                          ///< axial gap between neighbouring plates
-  double pin_overhang = 0;                 ///< pin beyond its outer plate, each end
+  double gap = 0;                          ///< least axial gap between neighbouring plates
+                                           ///< (wider where a pin's head or tail needs room)
   bool lever_outboard = false;             ///< lever moved in front of the drum face (its outline
                                            ///< crosses the drum in the front view)
 };
@@ -60,7 +61,17 @@ struct PinPlan {
   bool on_lever = false;   ///< passes through the lever (moves with it, unless the pivot)
   bool carries_band = false;
   std::string bracket;     ///< the bracket that holds it ("" for a pin on the lever only)
-  double z_back = 0, z_front = 0;  ///< ends of the pin [m]
+  double grip_back = 0, grip_front = 0;  ///< outer faces of the outermost plates it holds [m]
+  double z_back = 0, z_front = 0;  ///< ends of the pin as built: head face and shank end [m]
+  bool head_front = false;         ///< head on the front (+z) face; washer and split pin behind
+  standard::PinSet set;            ///< ISO 2341 B clevis pin, ISO 8738 washer, ISO 1234 split pin
+  /// Spacer sleeves (tubes) between the outer plate and the head or washer, where an end must
+  /// stand further out to clear a part beside it (0: none) [m].
+  double sleeve_back = 0, sleeve_front = 0;
+  double sleeve_diameter = 0;      ///< outside diameter of a sleeve [m]
+  /// Direction of the split pin's eye from the pin's axis, front view, applied state [rad]
+  /// (the split-pin hole lies along it).
+  double split_angle = 0;
 };
 
 /// Band-end joint kinds (design key `[band] end_joint`).
@@ -116,7 +127,6 @@ struct HardwarePlan {
 /// Common practice, no source: stated in README.md "Generated hardware".
 namespace hardware_rules {
 inline constexpr double axial_gap = 0.004;       ///< between neighbouring plates [m]
-inline constexpr double pin_overhang = 0.002;    ///< < axial_gap [m]
 inline constexpr double grip_diameter = 0.030;   ///< hand grip [m]
 inline constexpr double grip_length = 0.100;     ///< one hand's width [m]
 inline constexpr double clearance = 0.003;       ///< least gap the plan leaves between parts [m]

@@ -581,7 +581,7 @@ void add_checks(const Design& d, Solution& s) {
         std::string(band_governs ? "band stress" : "lining pressure") + " governs, f = " +
             fmt("%g", c.friction)));
   }
-  {
+  if (d.apply.by == ApplyBy::hand) {  // a weight or a spring: src/apply.cpp checks its moment
     const DirectionResult& r = s.results[s.primary_a_tight ? 0 : 1][0];
     s.checks.push_back(make_check(
         "hand_force", "Operator force at the handle", r.lever_force, kHandForceLimit, "N", true,
@@ -648,7 +648,7 @@ void add_warnings(const Design& d, Solution& s) {
     }
   }
   const DirectionResult& prim = s.results[s.primary_a_tight ? 0 : 1][0];
-  if (prim.lever_force > kHandForceRegular) {
+  if (d.apply.by == ApplyBy::hand && prim.lever_force > kHandForceRegular) {
     s.warnings.push_back("operator force " + fmt("%.0f N", prim.lever_force) + " (" +
                          case_note(L, prim) +
                          ") is above the 250 N a hand gives regularly (common practice, "
@@ -743,7 +743,11 @@ Solution solve(const Design& design) {
   // What bandforge adds by itself (brackets, end joints), with its own checks.
   s.hardware = plan_hardware(design, s);
   s.checks.insert(s.checks.end(), s.hardware.checks.begin(), s.hardware.checks.end());
+  // How the brake is applied (REFERENCE §8) and the hoist rules (§7): src/apply.cpp.
+  s.apply = solve_apply(design, s);
+  s.checks.insert(s.checks.end(), s.apply.checks.begin(), s.apply.checks.end());
   add_warnings(design, s);
+  s.warnings.insert(s.warnings.end(), s.apply.warnings.begin(), s.apply.warnings.end());
   return s;
 }
 

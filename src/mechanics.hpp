@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "src/apply.hpp"
 #include "src/check.hpp"
 #include "src/design.hpp"
 #include "src/hardware.hpp"
@@ -112,6 +113,7 @@ struct Solution {
   std::vector<Check> checks;
   std::vector<std::string> warnings;
   HardwarePlan hardware;  ///< generated brackets, joints and axial stack (pin layouts only)
+  ApplyResult apply;      ///< how the brake is applied: weight or spring, actuator, hoist rules
 
   const DirectionResult& nominal(bool a_tight) const { return results[a_tight ? 0 : 1][1]; }
   const DirectionResult& primary() const { return nominal(primary_a_tight); }

@@ -242,6 +242,9 @@ class Search {
     d.load.torque = b_.torque;
     d.load.service_factor = b_.service_factor;
     d.duty = b_.duty;
+    // The search lays out hand levers (README "Briefs and proposals"): a hoist whose drive the
+    // brief does not give is proposed as a hand-operated one, where a hand brake is right.
+    if (d.duty.hoist_mass > 0 && d.duty.drive == HoistDrive::unspecified) d.duty.drive = HoistDrive::manual;
     return d;
   }
 

@@ -116,7 +116,14 @@ json hardware_json(const HardwarePlan& h) {
                     {"carries_band", p.carries_band},
                     {"bracket", p.bracket},
                     {"z_back_m", p.z_back},
-                    {"z_front_m", p.z_front}});
+                    {"z_front_m", p.z_front},
+                    {"grip_m", p.grip_front - p.grip_back},
+                    {"head", p.head_front ? "front" : "back"},
+                    {"nominal_diameter_m", p.set.pin.d},
+                    {"length_m", p.set.length},
+                    {"designation", p.set.pin_designation()},
+                    {"washer", p.set.washer_designation()},
+                    {"split_pin", p.set.split_designation()}});
   }
   const AxialPlan& a = h.axial;
   return {{"buildable", h.refusal.empty()},
@@ -124,13 +131,84 @@ json hardware_json(const HardwarePlan& h) {
           {"axial", {{"lever_back_m", a.lever_back},
                      {"lever_front_m", a.lever_front},
                      {"lever_outboard", a.lever_outboard},
-                     {"gap_m", a.gap},
-                     {"pin_overhang_m", a.pin_overhang}}},
+                     {"gap_m", a.gap}}},
           {"brackets", brackets},
           {"pins", pins},
           {"joints", {{"a", joint_block(h.joint_a)}, {"b", joint_block(h.joint_b)}}},
           {"release_ok", h.release_ok}};
 }
+
+namespace {
+
+// How the brake is applied (src/apply.hpp): by, the spring or the weight, the actuator.
+json apply_json(const ApplyResult& a) {
+  json j{{"by", to_string(a.by)}};
+  if (!a.present) return j;
+  json positions = json::object();
+  const char* names[3] = {"applied", "worn", "released"};
+  const ApplyPosition* p[3] = {&a.applied, &a.worn, &a.released};
+  for (int i = 0; i < 3; ++i) {
+    positions[names[i]] = {{"rotation_deg", p[i]->rotation * 180.0 / kPi},
+                           {"at_m", xy(p[i]->at)},
+                           {"arm_m", p[i]->arm},
+                           {"element_moment_Nm", p[i]->element_moment},
+                           {"lever_moment_Nm", p[i]->lever_moment}};
+  }
+  j["positions"] = positions;
+  j["required_moment_Nm"] = a.required_moment;
+  j["governing_case"] = a.governing;
+  j["available_moment_Nm"] = a.available_moment;
+  j["holding_torque_Nm"] = a.holding_torque;
+  j["wear_allowance_m"] = a.wear_allowance;
+  j["wear_rotation_deg"] = a.wear_rotation * 180.0 / kPi;
+  j["lever_mass_kg"] = a.lever_mass;
+  j["lever_centroid_m"] = xy(a.lever_centroid);
+  if (a.by == ApplyBy::weight) {
+    j["weight"] = {{"mass_kg", a.weight_mass}, {"at_m", xy(a.applied.at)}};
+  }
+  if (a.by == ApplyBy::spring) {
+    const SpringResult& sp = a.spring;
+    if (sp.found) {
+      j["spring"] = {{"material", sp.material},
+                     {"wire_diameter_m", sp.wire_diameter},
+                     {"mean_diameter_m", sp.mean_diameter},
+                     {"outer_diameter_m", sp.outer_diameter},
+                     {"index", sp.index},
+                     {"active_coils", sp.active_coils},
+                     {"total_coils", sp.total_coils},
+                     {"ends", to_string(sp.ends)},
+                     {"free_length_m", sp.free_length},
+                     {"solid_length_m", sp.solid_length},
+                     {"rate_N_per_m", sp.rate},
+                     {"force_applied_N", sp.applied.force},
+                     {"force_worn_N", sp.worn.force},
+                     {"force_released_N", sp.released.force},
+                     {"length_applied_m", sp.applied.length},
+                     {"length_worn_m", sp.worn.length},
+                     {"length_released_m", sp.released.length},
+                     {"stress_applied_Pa", sp.applied.stress},
+                     {"stress_worn_Pa", sp.worn.stress},
+                     {"stress_released_Pa", sp.released.stress},
+                     {"tensile_strength_Pa", sp.tensile_strength},
+                     {"allowable_stress_Pa", sp.allowable},
+                     {"shear_modulus_Pa", sp.shear_modulus},
+                     {"overrun_to_closure", sp.overrun},
+                     {"buckling_free_length_m", sp.buckling_length},
+                     {"mass_kg", sp.mass},
+                     {"at_m", xy(a.applied.at)},
+                     {"seat_m", xy(a.seat)}};
+    } else {
+      j["spring"] = nullptr;
+    }
+    j["refusal"] = a.refusal.empty() ? json(nullptr) : json(a.refusal);
+  }
+  const ActuatorNeed& act = a.actuator;
+  j["actuator"] = {{"stroke_m", act.stroke}, {"force_N", act.force},   {"at_m", xy(act.at)},
+                   {"arm_m", act.arm},       {"travel_m", act.travel}, {"margin_m", act.margin}};
+  return j;
+}
+
+}  // namespace
 
 nlohmann::json json_report(const Design& design, const Solution& s) {
   const Layout& L = s.layout;
@@ -189,6 +267,7 @@ nlohmann::json json_report(const Design& design, const Solution& s) {
     j["thermal"] = nullptr;
   }
   j["hardware"] = hardware_json(s.hardware);
+  j["apply"] = apply_json(s.apply);
   json checks = json::array();
   for (const Check& c : s.checks) {
     checks.push_back({{"id", c.id},

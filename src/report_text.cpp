@@ -197,6 +197,68 @@ void thermal(Out& o, const Solution& s) {
   if (t.mean_power > 0) o.row("mean power (duty)", o.q(t.mean_power, Quantity::power));
 }
 
+// How the brake is applied by a weight or a spring (REFERENCE §8): the statics at the three lever
+// positions, the spring a maker can quote from, and the release actuator's requirement.
+void applying(Out& o, const Solution& s) {
+  const ApplyResult& a = s.apply;
+  if (!a.present) return;
+  o.heading("Applying the brake");
+  const auto nm = [&](double v) { return o.q(v, Quantity::torque); };
+  const auto len = [&](double v) { return o.q(v, Quantity::length); };
+  if (a.by == ApplyBy::weight) {
+    o.row("applied by", "a weight of " + o.q(a.weight_mass, Quantity::mass) + " hung at " + o.point(a.applied.at));
+  } else {
+    o.row("applied by", "a compression spring from " + o.point(a.applied.at) + " on the lever to its seat " +
+                            o.point(a.seat) + " on the frame");
+  }
+  o.row("moment needed", nm(a.required_moment) + " (" + a.governing + ")");
+  o.row("wear allowance", len(a.wear_allowance) + " radial, lever turned " + deg(a.wear_rotation, 3) +
+                              " further (φ·w/|m_A + m_B|)");
+  o.row("lever's own weight", o.q(a.lever_mass, Quantity::mass) + " at " + o.point(a.lever_centroid) +
+                                  ", moment " + nm(a.worn.lever_moment) + " at the worn position");
+  o.line("  " + Out::pad("", 26) + Out::pad("applied", 16) + Out::pad("worn", 16) + "released");
+  const ApplyPosition* p[3] = {&a.applied, &a.worn, &a.released};
+  auto three = [&](const std::string& label, auto get) {
+    o.line("  " + Out::pad(label, 26) + Out::pad(get(*p[0], 0), 16) + Out::pad(get(*p[1], 1), 16) + get(*p[2], 2));
+  };
+  three("lever rotation", [&](const ApplyPosition& x, int) { return deg(x.rotation, 3); });
+  three("arm about the pivot", [&](const ApplyPosition& x, int) { return len(x.arm); });
+  const SpringResult& sp = a.spring;
+  const SpringState* st[3] = {&sp.applied, &sp.worn, &sp.released};
+  if (a.by == ApplyBy::spring && sp.found) {
+    three("spring length", [&](const ApplyPosition&, int i) { return len(st[i]->length); });
+    three("spring force", [&](const ApplyPosition&, int i) { return o.q(st[i]->force, Quantity::force); });
+    three("spring shear stress", [&](const ApplyPosition&, int i) { return o.q(st[i]->stress, Quantity::stress); });
+  }
+  three("element's moment", [&](const ApplyPosition& x, int) { return nm(x.element_moment); });
+  three("lever weight's moment", [&](const ApplyPosition& x, int) { return nm(x.lever_moment); });
+  o.row("available when worn", nm(a.available_moment) + " against " + nm(a.required_moment) + " needed");
+  if (a.by == ApplyBy::spring) {
+    if (sp.found) {
+      o.line("  Spring (Shigley 9th ed. ch. 10):");
+      o.row("  wire", sp.material + ", d = " + len(sp.wire_diameter) + ", S_ut " +
+                          o.q(sp.tensile_strength, Quantity::stress) + ", allowable " +
+                          o.q(sp.allowable, Quantity::stress));
+      o.row("  coil", "mean Ø" + len(sp.mean_diameter) + ", outside Ø" + len(sp.outer_diameter) +
+                          ", index C = " + Out::num(sp.index, 3));
+      o.row("  coils", Out::num(sp.active_coils, 3) + " active, " + Out::num(sp.total_coils, 3) +
+                           " total, ends " + to_string(sp.ends));
+      o.row("  lengths", "free " + len(sp.free_length) + ", solid " + len(sp.solid_length) +
+                             ", buckling limit " + len(sp.buckling_length));
+      o.row("  rate", Out::num(sp.rate / 1000.0, 4) + " N/mm; overrun to closure ξ = " +
+                          Out::num(sp.overrun, 3) + "; wire mass " + o.q(sp.mass, Quantity::mass));
+    } else {
+      o.row("spring", "NONE FOUND: " + a.refusal);
+    }
+  }
+  const ActuatorNeed& act = a.actuator;
+  o.line("  Release actuator (the requirement for its maker):");
+  o.row("  acts at", o.point(act.at) + ", arm " + len(act.arm) + " (force perpendicular to the lever)");
+  o.row("  stroke", len(act.stroke) + " = " + len(act.travel) + " lift + " + len(act.margin) +
+                        " reserve for the wear allowance");
+  o.row("  force", o.q(act.force, Quantity::force) + " holding the lever released");
+}
+
 void checks(Out& o, const Solution& s) {
   o.heading("Checks");
   for (const Check& c : s.checks) {
@@ -262,6 +324,7 @@ std::string text_report(const Design& design, const Solution& solution, UnitSyst
   layout(o, solution);
   results(o, design, solution);
   thermal(o, solution);
+  applying(o, solution);
   if (solution.hardware.present) {
     o.heading("Generated hardware (what build adds)");
     for (const std::string& l : hardware_summary(solution.hardware, units)) o.line("  - " + l);

@@ -382,7 +382,7 @@ std::string Reader::lining_keys() {
 
 void Reader::read_duty(const Section& s, Duty& du) {
   check_keys(s, {"speed", "inertia", "mass", "stop_distance", "rope_radius", "stops_per_hour",
-                 "ambient"});
+                 "ambient", "drive"});
   du.present = true;
   const toml::node* speed_node = node(s, "speed");
   if (speed_node == nullptr) {
@@ -463,6 +463,16 @@ void Reader::read_duty(const Section& s, Duty& du) {
     du.stops_per_hour = per_hour;
   }
   if (auto t = quantity(s, "ambient", Quantity::temperature)) du.ambient = *t;
+  // What drives a hoist: the hoist rules (REFERENCE §7) are for powered hoists.
+  if (auto drive = choice(s, "drive", {"powered", "manual"})) {
+    if (!hoist) {
+      bad_value(s, "drive",
+                "drive belongs to a hoist duty (speed a linear speed such as \"0.5 m/s\"): it says "
+                "whether a motor (\"powered\") or a hand (\"manual\") drives the hoist; remove it "
+                "from a rotating duty");
+    }
+    du.drive = *drive == 0 ? HoistDrive::powered : HoistDrive::manual;
+  }
 }
 
 void Reader::read_drum_material(const Section& s, Drum& dr) {

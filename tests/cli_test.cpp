@@ -226,7 +226,7 @@ TEST(BadInput, ZeroSize) {
 }
 
 TEST(BadInput, FrictionOutsideZeroToOne) {
-  const auto p = example_with("material = \"woven\"", "material = \"woven\"\nfriction = 1.2", "friction");
+  const auto p = example_with("material = \"molded\"", "material = \"molded\"\nfriction = 1.2", "friction");
   expect_design_error(p, "lining.friction", line_of(p, "friction = 1.2"), "1.2");
 }
 

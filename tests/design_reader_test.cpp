@@ -154,16 +154,16 @@ TEST(DesignReader, BinHoistExampleConvertsToSi) {
   EXPECT_NEAR(d.drum.specific_heat, 543.41, 0.01);
   EXPECT_NE(d.drum.material_source.find("Faires"), std::string::npos);
 
-  // Woven, Juvinall & Marshek 5th ed. Table 18.1 (REFERENCE §2.4 Table A): f 0.25–0.45, nominal
-  // the middle 0.35; pressure lower end 50 psi = 50 × 6894.757 Pa = 344 738 Pa; temperature
-  // lower end 400 °F = (400 − 32)/1.8 = 204.44 °C; Neale Table 7.4 woven 0.3 W/mm² = 3e5 W/m².
-  EXPECT_EQ(d.lining.material, "woven");
+  // Molded, Juvinall & Marshek 5th ed. Table 18.1 (REFERENCE §2.4 Table A): f 0.25–0.45, nominal
+  // the middle 0.35; pressure lower end 150 psi = 150 × 6894.757 Pa = 1 034 214 Pa; temperature
+  // lower end 400 °F = (400 − 32)/1.8 = 204.44 °C; Neale Table 7.4 moulded 0.6 W/mm² = 6e5 W/m².
+  EXPECT_EQ(d.lining.material, "molded");
   EXPECT_DOUBLE_EQ(d.lining.friction_min, 0.25);
   EXPECT_DOUBLE_EQ(d.lining.friction_max, 0.45);
   EXPECT_NEAR(d.lining.friction, 0.35, 1e-12);
-  EXPECT_NEAR(d.lining.pressure_limit, 344738.0, 1.0);
+  EXPECT_NEAR(d.lining.pressure_limit, 1034214.0, 1.0);
   EXPECT_NEAR(d.lining.temperature_limit, 204.444, 1e-3);
-  EXPECT_NEAR(d.lining.power_limit, 3e5, 1e-6);
+  EXPECT_NEAR(d.lining.power_limit, 6e5, 1e-6);
   EXPECT_DOUBLE_EQ(d.lining.thickness, 0.005);
   EXPECT_NE(d.lining.friction_source.find("Table 18.1"), std::string::npos);
   EXPECT_NE(d.lining.power_source.find("Table 7.4"), std::string::npos);

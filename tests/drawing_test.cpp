@@ -20,10 +20,27 @@
 #include "drawing/drawing.hpp"
 #include "geometry/brake_model.hpp"
 #include "geometry/flat_patterns.hpp"
+#include "geometry/projection.hpp"
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
 #include "tests/support.hpp"
+
+// The drum sheet's diameters are checked against the STEP file as OCCT itself reads it back.
+#include <BRepAdaptor_Surface.hxx>
+#include <IFSelect_ReturnStatus.hxx>
+#include <STEPCAFControl_Reader.hxx>
+#include <TCollection_AsciiString.hxx>
+#include <TDF_LabelSequence.hxx>
+#include <TDataStd_Name.hxx>
+#include <TDocStd_Document.hxx>
+#include <TopExp_Explorer.hxx>
+#include <TopoDS.hxx>
+#include <XCAFDoc_DocumentTool.hxx>
+#include <XCAFDoc_ShapeTool.hxx>
+#include <gp_Cylinder.hxx>
+
+#include "geometry/occt_guard.hpp"
 
 namespace bandforge::drawing {
 namespace {
@@ -741,8 +758,8 @@ TEST(DrawingExamples, EveryExampleIsDrawn) {
     EXPECT_TRUE(d->plan.assembly);
     EXPECT_NE(page1.find("Assembly drawing"), std::string::npos);
     EXPECT_NE(page1.find(dia), std::string::npos) << dia;
-    // Then the detail sheets of the made parts (issue 10: the lever so far), then the calculation.
-    EXPECT_GE(d->plan.detail_sheets, 2);  // the lever and at least one frame bracket
+    // Then the detail sheets of the made parts (issue 10), then the calculation.
+    EXPECT_GE(d->plan.detail_sheets, 4);  // drum, band, lever and at least one frame bracket
     for (int page = 2; page < 2 + d->plan.detail_sheets; ++page) {
       EXPECT_NE(text_of(d->pdf, page).find("Detail drawing"), std::string::npos) << "page " << page;
     }
@@ -891,7 +908,7 @@ TEST(DrawingDetail, LeverHoleTableMatchesThePinsOfTheDesign) {
   for (const char* name : {"bin-hoist.toml", "ferry-differential.toml", "trolley-two-way.toml"}) {
     SCOPED_TRACE(name);
     auto d = draw(kSource + "/examples/" + name, std::string("lever-") + name + ".pdf");
-    const std::string page = text_of(d->pdf, 2, true);
+    const std::string page = text_of(d->pdf, 4, true);  // assembly, drum, band, lever (detail_parts order)
     EXPECT_NE(page.find("Detail drawing"), std::string::npos);
     // Lever holes of the design: the pivot, and each band end on the lever (not at the pivot).
     std::vector<Vec2> pins{d->design.lever.pivot};
@@ -942,8 +959,8 @@ TEST(DrawingDetail, SharedBracketHoleTableMatchesThePins) {
   auto d = draw(file.string(), "shared-bracket.pdf");
   ASSERT_EQ(d->solution.hardware.brackets.size(), 1u);
   ASSERT_EQ(d->solution.hardware.brackets[0].holes.size(), 2u);
-  ASSERT_EQ(d->plan.detail_sheets, 2);
-  const std::string page = text_of(d->pdf, 3, true);
+  ASSERT_EQ(d->plan.detail_sheets, 4);  // drum, band, lever, the shared bracket
+  const std::string page = text_of(d->pdf, 5, true);
   EXPECT_NE(page.find("BRACKET-A-PIVOT"), std::string::npos);
   std::vector<std::array<double, 2>> rows;
   const std::regex row(R"(H(\d+)\s+(-?[\d.]+)\s+(-?[\d.]+)\s+Ø16.0 H11)");
@@ -961,13 +978,722 @@ TEST(DrawingDetail, NoTwoWordsOverlapOnTheDetailSheets) {
   const auto a4 = draw(kExample, "detail-overlap-a4.pdf", UnitSystem::si, "A4");
   for (const Drawn* d : std::vector<const Drawn*>{&example(), us.get(), a4.get()}) {
     SCOPED_TRACE(d->pdf.string());
-    ASSERT_GE(d->plan.detail_sheets, 2);
+    ASSERT_GE(d->plan.detail_sheets, 4);
     for (int page = 2; page < 2 + d->plan.detail_sheets; ++page) {
       SCOPED_TRACE("page " + std::to_string(page));
       const auto words = cap_boxes(d->pdf, page);
       ASSERT_GT(words.size(), 30u);
       expect_no_two_words_overlap(words);
     }
+  }
+}
+
+
+// ---- the drum's detail sheet (issue 10, item 1) --------------------------------------------
+
+namespace {
+
+/// Diameters of the cylindrical faces of the product `name` in a STEP file re-read by OCCT's own
+/// reader (STEPCAFControl_Reader), distinct to 0.001 mm, ascending [mm].
+std::vector<double> step_cylinder_diameters(const fs::path& step, const std::string& name) {
+  geom::DocumentScope scope;
+  STEPCAFControl_Reader reader;
+  reader.SetNameMode(Standard_True);
+  EXPECT_EQ(reader.ReadFile(step.string().c_str()), IFSelect_RetDone);
+  EXPECT_TRUE(reader.Transfer(scope.doc));
+  Handle(XCAFDoc_ShapeTool) shapes = XCAFDoc_DocumentTool::ShapeTool(scope.doc->Main());
+  TDF_LabelSequence labels;
+  shapes->GetShapes(labels);
+  std::vector<double> out;
+  for (int i = 1; i <= labels.Length(); ++i) {
+    Handle(TDataStd_Name) n;
+    if (!labels(i).FindAttribute(TDataStd_Name::GetID(), n)) continue;
+    if (TCollection_AsciiString(n->Get()) != name.c_str() || shapes->IsAssembly(labels(i))) continue;
+    for (TopExp_Explorer ex(shapes->GetShape(labels(i)), TopAbs_FACE); ex.More(); ex.Next()) {
+      BRepAdaptor_Surface s(TopoDS::Face(ex.Current()));
+      if (s.GetType() != GeomAbs_Cylinder) continue;
+      const double d = 2 * s.Cylinder().Radius();
+      if (std::none_of(out.begin(), out.end(), [&](double x) { return std::abs(x - d) < 1e-3; })) out.push_back(d);
+    }
+  }
+  std::sort(out.begin(), out.end());
+  return out;
+}
+
+/// Every "Ø<number>" on a page of pdftotext output.
+std::vector<double> diameters_printed(const std::string& text) {
+  std::vector<double> out;
+  const std::regex dia(R"(Ø(\d+(?:\.\d+)?))");
+  for (auto it = std::sregex_iterator(text.begin(), text.end(), dia); it != std::sregex_iterator(); ++it)
+    out.push_back(std::stod((*it)[1]));
+  return out;
+}
+
+/// Dark pixels (< 128) inside a box given in sheet mm from the lower-left corner.
+int ink_in(const Gray& g, const std::array<double, 4>& box, double sheet_h_mm, int dpi) {
+  const double k = dpi / 25.4;
+  int n = 0;
+  for (int y = static_cast<int>((sheet_h_mm - box[3]) * k); y <= static_cast<int>((sheet_h_mm - box[1]) * k); ++y)
+    for (int x = static_cast<int>(box[0] * k); x <= static_cast<int>(box[2] * k); ++x) n += g.at(x, y) < 128;
+  return n;
+}
+
+}  // namespace
+
+// The four diameters the drum sheet prints (bore, hub, rim inside, friction surface) equal the
+// drum solid's cylinders as OCCT reads them back from the STEP file, at the printed 0.1 mm, and
+// the sheet sits where the plan says (after the assembly sheet, first of the details).
+TEST(DrawingDrumSheet, DiametersEqualTheSolidsReadBackFromStep) {
+  for (const char* name : {"bin-hoist.toml", "ferry-differential.toml", "trolley-two-way.toml"}) {
+    SCOPED_TRACE(name);
+    auto d = draw(kSource + "/examples/" + name, std::string("drum-") + name + ".pdf");
+    ASSERT_EQ(d->plan.drum_page, 2);
+    const fs::path step = scratch_root() / (std::string("drum-") + name + ".step");
+    geom::write_step(*d->applied, d->design, step.string());
+    const std::vector<double> solid = step_cylinder_diameters(step, "DRUM");
+    ASSERT_EQ(solid.size(), 4u);  // bore, hub, rim inside, friction surface
+    const std::string page = text_of(d->pdf, d->plan.drum_page);
+    EXPECT_NE(page.find("Detail drawing"), std::string::npos);
+    const std::vector<double> printed = diameters_printed(page);
+    for (double s : solid) {
+      const bool found = std::any_of(printed.begin(), printed.end(), [&](double p) { return std::abs(p - s) <= 0.05 + 1e-9; });
+      EXPECT_TRUE(found) << "Ø" << s << " of the solid is not printed";
+    }
+    // Which is which: the bore carries its fit, the friction surface its ISO 2768-1 m tolerance.
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "Ø%g H7", solid[0]);
+    EXPECT_NE(page.find(buf), std::string::npos) << buf;
+    std::snprintf(buf, sizeof buf, "Ø%g ±", solid[3]);
+    EXPECT_NE(page.find(buf), std::string::npos) << buf;
+    EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
+  }
+}
+
+// The bore's limit deviations are ISO 286-2's: H7 is 0/+IT7 with IT7 = 30 µm over 50 up to
+// 65 mm (Ø60, bin hoist) and 25 µm over 30 up to 50 mm (Ø50 ferry, Ø45 trolley) (REFERENCE §5.8,
+// the ISO 286-1 IT table); ISO 2768-1 class m over 120 up to 400 mm: ±0.5 mm (REFERENCE §5.8).
+TEST(DrawingDrumSheet, BoreFitLimitsAreIso286) {
+  const std::string hoist = squeezed(text_of(example().pdf, example().plan.drum_page));
+  EXPECT_NE(hoist.find("Ø60 H7 (+0.030/0)"), std::string::npos) << hoist;
+  EXPECT_NE(hoist.find("Ø400 ±0.5"), std::string::npos) << hoist;
+  // k6 over 50 up to 65: ei = +2 µm, es = ei + IT6 = +2 + 19 = +21 µm (REFERENCE §5.8).
+  EXPECT_NE(hoist.find("k6 shaft (+0.021/+0.002 mm)"), std::string::npos) << hoist;
+  auto ferry = draw(kSource + "/examples/ferry-differential.toml", "drum-fit-ferry.pdf");
+  const std::string f = squeezed(text_of(ferry->pdf, ferry->plan.drum_page));
+  EXPECT_NE(f.find("Ø50 H7 (+0.025/0)"), std::string::npos) << f;
+  EXPECT_NE(f.find("Ø300 ±0.5"), std::string::npos) << f;  // 120–400 mm: ±0.5
+}
+
+// The surface texture symbol (Ra 1.6, common practice, no source) and the total-runout frame
+// (0.1 mm to datum A, common practice, no source) are drawn: their texts are on the page and
+// there is ink inside the boxes the plan records, and none in a box of the same size beside the
+// texture symbol's box on the far side of the view (a control that the test can fail).
+TEST(DrawingDrumSheet, TextureSymbolAndRunoutFrameAreDrawn) {
+  for (const char* projection : {"first", "third"}) {
+    SCOPED_TRACE(projection);
+    auto d = draw(with_drawing_line(kExample, std::string("projection = \"") + projection + "\"",
+                                    std::string("drum-") + projection + ".toml").string(),
+                  std::string("drum-") + projection + ".pdf");
+    const std::string page = text_of(d->pdf, d->plan.drum_page);
+    EXPECT_NE(page.find("Ra 1.6"), std::string::npos);
+    EXPECT_NE(page.find("A–A"), std::string::npos);  // the section's designation (ISO 128-44)
+    const int dpi = 150;
+    const Gray g = render(d->pdf, d->plan.drum_page, dpi);
+    ASSERT_GT(g.w, 0);
+    const auto& ts = d->plan.drum_texture_symbol;
+    const auto& rf = d->plan.drum_runout_frame;
+    ASSERT_GT(ts[2] - ts[0], 5);  // recorded
+    ASSERT_GT(rf[2] - rf[0], 10);
+    EXPECT_GT(ink_in(g, ts, d->plan.height_mm, dpi), 60);
+    EXPECT_GT(ink_in(g, rf, d->plan.height_mm, dpi), 150);
+    EXPECT_GT(ink_in(g, d->plan.drum_datum, d->plan.height_mm, dpi), 40);
+    // The frame's outline: its left side is ink all the way up (ISO 1101 frame).
+    int left = 0;
+    for (double y = rf[1] + 0.5; y < rf[3] - 0.5; y += 0.5) left += darkest_near(g, rf[0], y, d->plan.height_mm, dpi, 1) < 128;
+    EXPECT_GE(left, 7);
+    // Control: the same box 40 mm further up the sheet from the frame is blank paper.
+    const std::array<double, 4> above_title{d->plan.title_block[0] + 2, d->plan.title_block[3] + 40,
+                                            d->plan.title_block[0] + 2 + (rf[2] - rf[0]), d->plan.title_block[3] + 45};
+    EXPECT_EQ(ink_in(g, above_title, d->plan.height_mm, dpi), 0);
+    EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
+  }
+}
+
+// No text over other text on the drum sheet, on A3, in US units and on A4 portrait.
+TEST(DrawingDrumSheet, NoTwoWordsOverlap) {
+  const auto us = draw(kExample, "drum-overlap-us.pdf", UnitSystem::us);
+  const auto a4 = draw(kExample, "drum-overlap-a4.pdf", UnitSystem::si, "A4");
+  for (const Drawn* d : std::vector<const Drawn*>{&example(), us.get(), a4.get()}) {
+    SCOPED_TRACE(d->pdf.string());
+    const auto words = cap_boxes(d->pdf, d->plan.drum_page);
+    ASSERT_GT(words.size(), 40u);
+    expect_no_two_words_overlap(words);
+  }
+  // Fits stay in millimetres in US units (as ISO 286 gives them), dimensions in inches:
+  // 400 mm = 15.748 in, printed to 0.01 in.
+  const std::string t = squeezed(text_of(us->pdf, us->plan.drum_page));
+  EXPECT_NE(t.find("Ø60 mm H7 (+0.030/0)"), std::string::npos) << t;
+  EXPECT_NE(t.find("Ø15.75"), std::string::npos) << t;
+}
+
+// ---- the band assembly's detail sheet (issue 10, item 1) ----------------------------------
+
+namespace {
+
+/// Round holes of a DXF read by ezdxf (the independent reader the fab tests use): diameter →
+/// count, diameters to 0.01 mm.
+std::map<double, int> dxf_holes(const fs::path& dxf) {
+  const Shell r = run("/usr/bin/python3 -c \"import ezdxf, collections, sys; d = ezdxf.readfile(sys.argv[1]); "
+                      "c = collections.Counter(round(2 * e.dxf.radius, 2) for e in d.modelspace().query('CIRCLE')); "
+                      "print(' '.join(f'{k}:{v}' for k, v in sorted(c.items())))\" " + quote(dxf));
+  std::map<double, int> out;
+  std::istringstream in(r.out);
+  std::string item;
+  while (in >> item) out[std::stod(item.substr(0, item.find(':')))] = std::stoi(item.substr(item.find(':') + 1));
+  return out;
+}
+
+}  // namespace
+
+// Built by the executable, as a user builds it: the band sheet's band thickness and width and
+// lining thickness are the design's; its developed length is the cut list's BAND-BLANK length;
+// its rivet counts are the DXF's holes (read by ezdxf): a joint rivet passes through the tail
+// and the run (two holes in the band blank), a lining rivet through lining and band (one hole in
+// each blank).
+TEST(DrawingBandSheet, SizesLengthAndRivetsMatchTheDesignAndTheFabPack) {
+  for (const char* name : {"bin-hoist.toml", "ferry-differential.toml", "trolley-two-way.toml"}) {
+    SCOPED_TRACE(name);
+    const fs::path out = scratch_root() / (std::string("band-") + name);
+    const Shell b = run(std::string(BANDFORGE_EXE) + " build " + quote(kSource + "/examples/" + name) + " -o " + quote(out));
+    ASSERT_EQ(b.status, 0) << b.out;
+    const Design design = read_design_file(kSource + "/examples/" + name);
+    fs::path pdf;
+    for (const auto& e : fs::directory_iterator(out))
+      if (e.path().extension() == ".pdf") pdf = e.path();
+    ASSERT_FALSE(pdf.empty());
+    const int band_page = 3;  // assembly, drum, band (detail_parts order, issue 10)
+    const std::string page = squeezed(text_of(pdf, band_page));
+    EXPECT_NE(page.find("Band assembly"), std::string::npos) << page;
+    auto mm = [](double m) {
+      char buf[32];
+      std::snprintf(buf, sizeof buf, "%g", std::round(m * 1e4) / 10);
+      return std::string(buf);
+    };
+    EXPECT_NE(page.find("strip " + mm(design.band.thickness) + " × " + mm(design.band.width)), std::string::npos) << page;
+    EXPECT_NE(page.find(design.lining.material + " " + mm(design.lining.thickness) + " thick"), std::string::npos) << page;
+    // Developed length: the cut list's BAND-BLANK length (2 decimals) at the printed 0.1 mm.
+    double blank = 0;
+    for (const CsvRow& r : read_cutlist(out / "fab" / "cutlist.csv"))
+      if (r["part"] == "BAND-BLANK") blank = std::stod(r["length_mm"]);
+    ASSERT_GT(blank, 0);
+    std::smatch m;
+    ASSERT_TRUE(std::regex_search(page, m, std::regex(R"(developed length ([\d.]+) mm)"))) << page;
+    EXPECT_NEAR(std::stod(m[1]), blank, 0.05 + 0.005);
+    // Rivets: the parts table rows "Rivet Ø6 (joints)  steel, bought  16" (read with -layout).
+    const std::string table = squeezed(text_of(pdf, band_page, true));
+    const auto band_holes = dxf_holes(out / "fab" / "band-blank.dxf");
+    const auto lining_holes = dxf_holes(out / "fab" / "lining-blank.dxf");
+    int lining_rivets = 0, band_all = 0;
+    for (const auto& [dia, n] : lining_holes) lining_rivets += n;
+    for (const auto& [dia, n] : band_holes) band_all += n;
+    ASSERT_EQ((band_all - lining_rivets) % 2, 0);
+    const int joint_rivets = (band_all - lining_rivets) / 2;
+    ASSERT_TRUE(std::regex_search(table, m, std::regex(R"(Rivet Ø([\d.]+) \(joints\) steel, bought (\d+))"))) << table;
+    EXPECT_EQ(std::stoi(m[2]), joint_rivets);
+    EXPECT_EQ(band_holes.count(std::stod(m[1])), 1u) << "joint rivet Ø" << m[1] << " is a hole size of the band blank";
+    if (lining_rivets > 0) {
+      ASSERT_TRUE(std::regex_search(table, m, std::regex(R"(Rivet Ø([\d.]+) \(lining\) brass or copper, bought (\d+))")));
+      EXPECT_EQ(std::stoi(m[2]), lining_rivets);
+    }
+    EXPECT_EQ(run("qpdf --check " + quote(pdf)).status, 0);
+  }
+}
+
+// A welded end block (band.end_joint = "welded-block"): its detail gives the bore with the pin
+// fit, Ø16 H11 = +0.110/0 mm over 10 up to 18 mm (REFERENCE §5.8: IT11 = 110 µm), the block in
+// the parts table and the ISO 2553 leg size; in third angle as well.
+TEST(DrawingBandSheet, WeldedEndBlocksCarryTheBoreFit) {
+  std::string text = slurp(kExample);
+  const auto at = text.find("pin_diameter = ");
+  ASSERT_NE(at, std::string::npos);
+  text.insert(at, "end_joint = \"welded-block\"\n");
+  const fs::path file = scratch_root() / "band-welded.toml";
+  std::ofstream(file) << text;
+  for (const char* projection : {"first", "third"}) {
+    SCOPED_TRACE(projection);
+    auto d = draw(with_drawing_line(file.string(), std::string("projection = \"") + projection + "\"",
+                                    std::string("band-welded-") + projection + ".toml").string(),
+                  std::string("band-welded-") + projection + ".pdf");
+    ASSERT_EQ(d->plan.band_page, 3);
+    const std::string page = squeezed(text_of(d->pdf, d->plan.band_page));
+    EXPECT_NE(page.find("Ø16 H11 (+0.110/0)"), std::string::npos) << page;
+    EXPECT_NE(page.find("END-BLOCK-A"), std::string::npos);
+    EXPECT_NE(page.find("END-BLOCK-B"), std::string::npos);
+    char leg[32];
+    std::snprintf(leg, sizeof leg, "z%g", d->solution.hardware.joint_a.weld_leg * 1000);
+    EXPECT_NE(page.find(leg), std::string::npos) << leg;
+    EXPECT_EQ(page.find("(joints)"), std::string::npos);  // no joint rivets
+    expect_no_two_words_overlap(cap_boxes(d->pdf, d->plan.band_page));
+    EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
+  }
+}
+
+// No text over other text on the band sheet, on A3, in US units and on A4 portrait.
+TEST(DrawingBandSheet, NoTwoWordsOverlap) {
+  const auto us = draw(kExample, "band-overlap-us.pdf", UnitSystem::us);
+  const auto a4 = draw(kExample, "band-overlap-a4.pdf", UnitSystem::si, "A4");
+  for (const Drawn* d : std::vector<const Drawn*>{&example(), us.get(), a4.get()}) {
+    SCOPED_TRACE(d->pdf.string());
+    ASSERT_EQ(d->plan.band_page, 3);
+    const auto words = cap_boxes(d->pdf, d->plan.band_page);
+    ASSERT_GT(words.size(), 40u);
+    expect_no_two_words_overlap(words);
+  }
+}
+
+// ---- the isometric view and the list of sheets on the assembly sheet (issue 10, item 5) ------
+
+namespace {
+
+// The ISO 5457 drawing space: 20 mm filing margin on the left, 10 mm on the other edges
+// (REFERENCE §5.2), of the ISO 216 sheet as drawn (REFERENCE §5.1).
+std::array<double, 4> drawing_space(const SheetPlan& p) { return {20, 10, p.width_mm - 10, p.height_mm - 10}; }
+
+bool boxes_overlap(const std::array<double, 4>& a, const std::array<double, 4>& b) {
+  return a[0] < b[2] && b[0] < a[2] && a[1] < b[3] && b[1] < a[3];
+}
+
+// The isometric view's box lies in the drawing space and overlaps no other box page 1 records
+// (views, detail X, tables, notes, caution, title block); its scale is an ISO 5455 reduction no
+// larger than the sheet's (REFERENCE §5.4: 1:1, 1:2, 1:5, 1:10, 1:20, 1:50, 1:100 …).
+void expect_isometric_clear(const Drawn& d) {
+  const SheetPlan& p = d.plan;
+  const std::array<double, 4> iso{p.iso_box[0], p.iso_box[1], p.iso_box[2], p.iso_box[3]};
+  const auto space = drawing_space(p);
+  EXPECT_GT(iso[2] - iso[0], 0);
+  EXPECT_GT(iso[3] - iso[1], 0);
+  EXPECT_TRUE(iso[0] >= space[0] && iso[1] >= space[1] && iso[2] <= space[2] && iso[3] <= space[3])
+      << iso[0] << " " << iso[1] << " " << iso[2] << " " << iso[3];
+  int listed = 0;
+  for (const PlacedBox& b : p.page1_boxes) {
+    if (b.what == "isometric view") {
+      ++listed;
+      EXPECT_EQ(b.box, iso);
+      continue;
+    }
+    EXPECT_FALSE(boxes_overlap(iso, b.box)) << "isometric view over the " << b.what;
+  }
+  EXPECT_EQ(listed, 1);
+  for (const char* what : {"front view", "side view", "parts list", "results", "notes", "caution", "title block"}) {
+    EXPECT_TRUE(std::any_of(p.page1_boxes.begin(), p.page1_boxes.end(),
+                            [&](const PlacedBox& b) { return b.what == what && b.box[2] > b.box[0]; }))
+        << what << " not recorded: the overlap check would miss it";
+  }
+  EXPECT_EQ(p.iso_scale_num, 1);
+  const std::vector<int> iso5455 = {1, 2, 5, 10, 20, 50, 100, 200, 500, 1000};
+  EXPECT_NE(std::find(iso5455.begin(), iso5455.end(), p.iso_scale_den), iso5455.end()) << p.iso_scale_den;
+  EXPECT_LE(static_cast<double>(p.iso_scale_num) / p.iso_scale_den,
+            static_cast<double>(p.scale_num) / p.scale_den);
+  // Labelled as detail X is: the name and its own scale under the view.
+  EXPECT_NE(text_of(d.pdf, 1).find("ISOMETRIC (1:" + std::to_string(p.iso_scale_den) + ")"), std::string::npos);
+}
+
+}  // namespace
+
+// ISO 5456-3 isometric axonometry (from memory, high confidence): the projections of the three
+// coordinate axes meet at 120° on paper, one of them upright, and each axis is foreshortened
+// equally, to √(2/3) = 0.8165 in a true orthographic projection (the standard also allows the
+// simplified scale 1). Paper coordinates of a model vector v: (v·right, v·up), up = view × right.
+TEST(DrawingIsometric, AxesAre120DegreesApartAndEquallyForeshortened) {
+  const geom::ViewSpec v = geom::isometric_view();
+  auto dot = [](geom::Vec3 a, geom::Vec3 b) { return a.x * b.x + a.y * b.y + a.z * b.z; };
+  auto cross = [](geom::Vec3 a, geom::Vec3 b) {
+    return geom::Vec3{a.y * b.z - a.z * b.y, a.z * b.x - a.x * b.z, a.x * b.y - a.y * b.x};
+  };
+  EXPECT_NEAR(dot(v.toward_viewer, v.toward_viewer), 1.0, 1e-12);
+  EXPECT_NEAR(dot(v.right, v.right), 1.0, 1e-12);
+  EXPECT_NEAR(dot(v.toward_viewer, v.right), 0.0, 1e-12);
+  const geom::Vec3 up = cross(v.toward_viewer, v.right);
+  const geom::Vec3 axes[3] = {{1, 0, 0}, {0, 1, 0}, {0, 0, 1}};
+  double px[3], py[3];
+  for (int i = 0; i < 3; ++i) {
+    px[i] = dot(axes[i], v.right);
+    py[i] = dot(axes[i], up);
+    EXPECT_NEAR(std::hypot(px[i], py[i]), std::sqrt(2.0 / 3.0), 1e-12) << "axis " << i;  // 0.8165
+  }
+  EXPECT_NEAR(std::sqrt(2.0 / 3.0), 0.8165, 5e-5);
+  for (int i = 0; i < 3; ++i) {
+    const int j = (i + 1) % 3;
+    const double cos_ij = (px[i] * px[j] + py[i] * py[j]) / (2.0 / 3.0);
+    EXPECT_NEAR(std::acos(cos_ij) * 180 / M_PI, 120.0, 1e-9) << "axes " << i << " and " << j;
+  }
+  // The model's y axis (up in the front view) stays upright; x runs down to the right at 30°,
+  // z down to the left: the front (+z), right side (+x) and top (+y) are the faces seen.
+  EXPECT_NEAR(px[1], 0.0, 1e-12);
+  EXPECT_GT(py[1], 0);
+  EXPECT_NEAR(std::atan2(py[0], px[0]) * 180 / M_PI, -30.0, 1e-9);
+  EXPECT_NEAR(std::atan2(py[2], px[2]) * 180 / M_PI, -150.0, 1e-9);
+  EXPECT_GT(dot(v.toward_viewer, {0, 0, 1}), 0);
+}
+
+// The view is on the default A3 sheet of every example with pins, clear of everything else; on
+// A4 and A2, in US units and in third angle it is there or a note says why not.
+TEST(DrawingIsometric, PlacedInsideTheFrameAndClearOfTheOtherBoxes) {
+  int drawn = 0;
+  for (const auto& entry : fs::directory_iterator(kSource + "/examples")) {
+    if (entry.path().extension() != ".toml") continue;
+    if (read_design_file(entry.path().string()).concept_arms.present) continue;
+    for (const std::string sheet : {"A3", "A4", "A2"}) {
+      SCOPED_TRACE(entry.path().filename().string() + " on " + sheet);
+      auto d = draw(entry.path().string(), "iso-" + sheet + "-" + entry.path().stem().string() + ".pdf",
+                    UnitSystem::si, sheet);
+      ASSERT_TRUE(d->plan.assembly);
+      if (sheet == "A3") {
+        ASSERT_GT(d->plan.iso_scale_den, 0) << "the default sheet must carry the view";
+      }
+      if (d->plan.iso_scale_den > 0) {
+        expect_isometric_clear(*d);
+        ++drawn;
+      } else {
+        EXPECT_NE(squeezed(text_of(d->pdf, 1)).find("No room on sheet " + sheet + " for the isometric view"),
+                  std::string::npos);
+      }
+    }
+  }
+  EXPECT_GE(drawn, 3);
+  const auto us = draw(kExample, "iso-us.pdf", UnitSystem::us);
+  const auto third = draw(with_drawing_line(kExample, "projection = \"third\"", "iso-third.toml").string(),
+                          "iso-third.pdf");
+  ASSERT_GT(us->plan.iso_scale_den, 0);  // US units change no geometry: the view is there
+  for (const Drawn* d : {us.get(), third.get()}) {
+    SCOPED_TRACE(d->pdf.string());
+    if (d->plan.iso_scale_den > 0) {
+      expect_isometric_clear(*d);
+    } else {
+      EXPECT_NE(squeezed(text_of(d->pdf, 1)).find("No room on sheet A3 for the isometric view"), std::string::npos);
+    }
+    expect_no_two_words_overlap(cap_boxes(d->pdf, 1));
+  }
+}
+
+// The view was drawn where it is recorded: ink inside the box, and the 1–3 mm ring around it
+// blank (nothing drawn up to it, and its lines stay inside). pdftoppm renders page 1.
+TEST(DrawingIsometric, InkInsideTheRecordedBoxAndClearPaperAroundIt) {
+  const Drawn& d = example();
+  ASSERT_GT(d.plan.iso_scale_den, 0);
+  const int dpi = 150;
+  const Gray g = render(d.pdf, 1, dpi);
+  ASSERT_GT(g.w, 0);
+  const double* b = d.plan.iso_box;
+  int inside = 0, samples = 0, ring = 0;
+  for (double x = b[0] - 3; x <= b[2] + 3; x += 0.25) {
+    for (double y = b[1] - 3; y <= b[3] + 3; y += 0.25) {
+      const bool in = x >= b[0] && x <= b[2] && y >= b[1] && y <= b[3];
+      const bool near_ring = !in && x >= b[0] - 3 && x <= b[2] + 3 && y >= b[1] - 3 && y <= b[3] + 3 &&
+                             (x < b[0] - 1 || x > b[2] + 1 || y < b[1] - 1 || y > b[3] + 1);
+      const bool dark = darkest_near(g, x, y, d.plan.height_mm, dpi, 0) < 128;
+      if (in) {
+        ++samples;
+        inside += dark;
+      } else if (near_ring) {
+        ring += dark;
+      }
+    }
+  }
+  // A whole brake in wide 0.5 mm lines: well over 1 % of the box is ink (hand count on the
+  // example's render: several per cent; an empty box gives 0).
+  EXPECT_GT(inside, samples / 100) << inside << " of " << samples;
+  EXPECT_EQ(ring, 0);
+}
+
+// Page 1 lists every sheet of the PDF: n/N with N the page count pdfinfo reads, in order, each
+// with the title its own title block carries and the ISO 216 size pdfinfo measures
+// (REFERENCE §5.1: A2 594 × 420, A3 420 × 297, A4 210 × 297 mm as drawn).
+// On A4 portrait (every zone spans the frame; the views keep 2 mm to spare at 1:100) the list
+// may have no room: then a note on the sheet says so.
+TEST(DrawingIsometric, SheetListNamesEveryPageOfThePdf) {
+  const auto a2 = draw(kExample, "list-a2.pdf", UnitSystem::si, "A2");
+  const auto a4 = draw(kExample, "list-a4.pdf", UnitSystem::si, "A4");
+  const auto us = draw(kExample, "list-us.pdf", UnitSystem::us);
+  for (const Drawn* d : std::vector<const Drawn*>{&example(), a2.get(), a4.get(), us.get()}) {
+    SCOPED_TRACE(d->pdf.string());
+    const bool listed = std::any_of(d->plan.page1_boxes.begin(), d->plan.page1_boxes.end(),
+                                    [](const PlacedBox& b) { return b.what == "sheet list"; });
+    if (d->plan.sheet != "A4") {
+      ASSERT_TRUE(listed);
+    } else if (!listed) {
+      EXPECT_NE(squeezed(text_of(d->pdf, 1)).find("the list of sheets (each title block gives its sheet n / N)"),
+                std::string::npos);
+      continue;
+    }
+    const Shell info = run("pdfinfo -f 1 -l 99 " + quote(d->pdf));
+    std::smatch m;
+    ASSERT_TRUE(std::regex_search(info.out, m, std::regex(R"(Pages:\s+(\d+))")));
+    const int pages = std::stoi(m[1]);
+    std::map<int, std::string> size_of_page;
+    const std::regex size(R"(Page\s+(\d+) size:\s+([\d.]+) x ([\d.]+) pts)");
+    for (auto it = std::sregex_iterator(info.out.begin(), info.out.end(), size); it != std::sregex_iterator(); ++it) {
+      const double w = std::stod((*it)[2]), h = std::stod((*it)[3]);
+      auto is = [&](double a, double b) { return std::abs(w - pt(a)) < 0.5 && std::abs(h - pt(b)) < 0.5; };
+      size_of_page[std::stoi((*it)[1])] = is(594, 420) ? "A2" : is(420, 297) ? "A3" : is(210, 297) ? "A4" : "?";
+    }
+    const std::string page1 = text_of(d->pdf, 1, true);
+    // pdftotext -layout may put more than one space between the words of a title.
+    const std::regex entry(
+        R"((\d+)/(\d+)\s+(Assembly\s+drawing|Detail\s+drawing:\s+[A-Z0-9-]+|Calculation\s+sheet(?:,\s+cont\.)?)\s+(A\d))");
+    const std::regex spaces(R"(\s+)");
+    // Two groups of entries side by side come out of -layout row by row: keyed by n.
+    std::map<int, std::array<std::string, 3>> rows;  // n → N, title, size
+    for (auto it = std::sregex_iterator(page1.begin(), page1.end(), entry); it != std::sregex_iterator(); ++it) {
+      rows[std::stoi((*it)[1])] = {(*it)[2], std::regex_replace((*it)[3].str(), spaces, " "), (*it)[4]};
+    }
+    ASSERT_EQ(static_cast<int>(rows.size()), pages) << page1;
+    int expected = 1;
+    for (const auto& [n, row] : rows) {
+      SCOPED_TRACE("sheet " + std::to_string(n));
+      EXPECT_EQ(n, expected++);
+      EXPECT_EQ(std::stoi(row[0]), pages);
+      EXPECT_EQ(row[2], size_of_page[n]);
+      const std::string text = text_of(d->pdf, n);
+      const std::string& title = row[1];
+      if (title == "Assembly drawing") {
+        EXPECT_EQ(n, 1);
+        EXPECT_NE(text.find("Assembly drawing"), std::string::npos);
+      } else if (title.rfind("Detail drawing: ", 0) == 0) {
+        EXPECT_NE(text.find("Detail drawing"), std::string::npos);
+        EXPECT_NE(text.find(title.substr(16)), std::string::npos) << "the part's name on its sheet";
+      } else {
+        EXPECT_NE(text.find("Calculation sheet"), std::string::npos);
+      }
+      // The sheet's own title block says n / N.
+      EXPECT_TRUE(std::regex_search(text, std::regex("\\b" + std::to_string(n) + "\\s*/\\s*" + std::to_string(pages) + "\\b")));
+    }
+    EXPECT_EQ(d->plan.sheet_list.size(), static_cast<std::size_t>(pages));
+  }
+}
+
+}  // namespace
+}  // namespace bandforge::drawing
+
+// ---- applying the brake on the calculation sheet (issue 11) ---------------------------------
+
+namespace bandforge::drawing {
+namespace {
+
+// The pages of the set that are calculation sheets, by the set's own list.
+std::vector<int> calculation_pages(const Drawn& d) {
+  std::vector<int> out;
+  for (const SheetEntry& e : d.plan.sheet_list) {
+    if (e.title.rfind("Calculation sheet", 0) == 0) out.push_back(e.number);
+  }
+  return out;
+}
+
+std::string calculation_text(const Drawn& d) {
+  std::string out;
+  for (int p : calculation_pages(d)) out += text_of(d.pdf, p, true);
+  return out;
+}
+
+// The example with its [apply] section replaced (an empty `block`: applied by hand).
+fs::path example_applied_by(const std::string& block, const std::string& name) {
+  const std::string text = slurp(kExample);
+  const size_t from = text.find("[apply]"), to = text.find("[load]");
+  EXPECT_NE(from, std::string::npos);
+  EXPECT_LT(from, to);
+  const fs::path out = scratch_root() / name;
+  std::ofstream(out) << text.substr(0, from) << block << text.substr(to);
+  return out;
+}
+
+// 25 kg hung at the handle point, 810 mm from the pivot along x (the example's lever.pivot
+// (−110, −300) mm and handle (700, −300) mm): W·a = 25 kg · 9.80665 m/s² · 0.810 m = 198.6 N·m
+// (standard gravity, 3rd CGPM 1901), which with the lever's own weight covers the 193.7 N·m the
+// example needs at f_min; `solve` passes every check with it.
+constexpr double kWeightMass = 25.0;
+constexpr double kWeightArm = 0.810;
+const char* const kWeightApply = "[apply]\nby = \"weight\"\nat = [\"700 mm\", \"-300 mm\"]\nmass = \"25 kg\"\n\n";
+
+size_t occurrences(const std::string& text, const std::string& what) {
+  size_t n = 0;
+  for (size_t at = text.find(what); at != std::string::npos; at = text.find(what, at + 1)) ++n;
+  return n;
+}
+
+TEST(DrawingApplyCalc, SpringAndActuatorFiguresEqualSolveJson) {
+  const Shell r = solve_json(kExample);
+  ASSERT_EQ(r.status, 0) << r.out;
+  const nlohmann::json j = nlohmann::json::parse(r.out).at("apply");
+  ASSERT_EQ(j.at("by"), "spring");
+  const nlohmann::json& sp = j.at("spring");
+  const std::string calc = calculation_text(example());
+  struct Row {
+    const char* label;
+    const char* key;
+    double scale;  // SI → printed unit: mm, N/mm, a count
+  };
+  const Row rows[] = {
+      {"Wire diameter d", "wire_diameter_m", 1e3},  {"Mean coil diameter D", "mean_diameter_m", 1e3},
+      {"Outside diameter D_o", "outer_diameter_m", 1e3}, {"Coils, active N_a", "active_coils", 1.0},
+      {"Coils, total N_t", "total_coils", 1.0},      {"Free length L_0", "free_length_m", 1e3},
+      {"Solid length L_s", "solid_length_m", 1e3},  {"Spring rate k", "rate_N_per_m", 1e-3},
+  };
+  for (const Row& row : rows) {
+    const auto v = numbers_after(calc, row.label);
+    ASSERT_GE(v.size(), 1u) << row.label;
+    expect_printed(v[0], sp.at(row.key).get<double>() * row.scale, row.label);
+  }
+  EXPECT_NE(calc.find(sp.at("material").get<std::string>()), std::string::npos);
+  // The three lever positions, in the order applied, worn, released.
+  const char* positions[3] = {"applied", "worn", "released"};
+  const auto force = numbers_after(calc, "Spring force F [N]");
+  const auto length = numbers_after(calc, "Spring length L [mm]");
+  ASSERT_GE(force.size(), 3u);
+  ASSERT_GE(length.size(), 3u);
+  for (int i = 0; i < 3; ++i) {
+    expect_printed(force[i], sp.at(std::string("force_") + positions[i] + "_N").get<double>(),
+                   std::string("spring force, ") + positions[i]);
+    expect_printed(length[i], sp.at(std::string("length_") + positions[i] + "_m").get<double>() * 1e3,
+                   std::string("spring length, ") + positions[i]);
+  }
+  // The spring maker's sentence carries the same working points.
+  EXPECT_NE(calc.find("Specification: helical compression spring"), std::string::npos);
+  // The release actuator: stroke [mm] and force [N] at its point.
+  const nlohmann::json& act = j.at("actuator");
+  const auto stroke = numbers_after(calc, "Actuator stroke");
+  const auto push = numbers_after(calc, "Actuator force");
+  ASSERT_GE(stroke.size(), 1u);
+  ASSERT_GE(push.size(), 1u);
+  expect_printed(stroke[0], act.at("stroke_m").get<double>() * 1e3, "actuator stroke [mm]");
+  expect_printed(push[0], act.at("force_N").get<double>(), "actuator force [N]");
+  const auto lift = numbers_after(calc, "Actuator lift");
+  ASSERT_GE(lift.size(), 1u);
+  expect_printed(lift[0], act.at("travel_m").get<double>() * 1e3, "actuator lift [mm]");
+}
+
+TEST(DrawingApplyCalc, UsUnitsPrintTheSpringInInchesAndPoundsForce) {
+  const Shell r = solve_json(kExample);
+  ASSERT_EQ(r.status, 0) << r.out;
+  const nlohmann::json j = nlohmann::json::parse(r.out).at("apply");
+  const auto us = draw(kExample, "apply-us-values.pdf", UnitSystem::us);
+  const std::string calc = calculation_text(*us);
+  // 1 in = 0.0254 m, 1 lbf = 4.4482216152605 N (exact: 0.45359237 kg × 9.80665 m/s²).
+  const double in = 1 / 0.0254, lbf = 1 / 4.4482216152605;
+  const auto d = numbers_after(calc, "Wire diameter d");
+  const auto k = numbers_after(calc, "Spring rate k");
+  const auto force = numbers_after(calc, "Spring force F [lbf]");
+  const auto stroke = numbers_after(calc, "Actuator stroke");
+  ASSERT_GE(d.size(), 1u);
+  ASSERT_GE(k.size(), 1u);
+  ASSERT_GE(force.size(), 3u);
+  ASSERT_GE(stroke.size(), 1u);
+  expect_printed(d[0], j["spring"]["wire_diameter_m"].get<double>() * in, "wire diameter [in]");
+  expect_printed(k[0], j["spring"]["rate_N_per_m"].get<double>() * lbf / in, "rate [lbf/in]");
+  expect_printed(force[2], j["spring"]["force_released_N"].get<double>() * lbf, "released force [lbf]");
+  expect_printed(stroke[0], j["actuator"]["stroke_m"].get<double>() * in, "actuator stroke [in]");
+  EXPECT_NE(calc.find("lbf/in"), std::string::npos);
+}
+
+TEST(DrawingApplyCalc, FormulasAndTheirSourcesArePrinted) {
+  const std::string calc = calculation_text(example());
+  // Shigley's Mechanical Engineering Design, 9th ed., ch. 10: index (10-1), Bergsträsser factor
+  // (10-5), stress (10-7), rate (10-9), buckling (10-13), strength (10-14, Table 10-4), ends
+  // (Table 10-1), allowable (Table 10-6), shear modulus (Table 10-5) — REFERENCE §8.2.
+  for (const char* source : {"eq. 10-1", "eq. 10-5", "eq. 10-7", "eq. 10-9", "eq. 10-13", "Table 10-1",
+                             "Table 10-4", "Table 10-5", "Table 10-6"}) {
+    EXPECT_TRUE(std::regex_search(calc, std::regex(std::string("Shigley 9th ed\\. ") +
+                                                   regex_escaped(source) + "\\b")))
+        << source;
+  }
+  EXPECT_NE(calc.find("EN 13906-1"), std::string::npos);
+  for (const char* formula : {"C = D/d", "(4C + 2)/(4C − 3)", "K_B·8·F·D/(π·d³)", "d⁴·G/(8·D³·N_a)", "A/d^m",
+                              "2.63·D/α", "φ·w/|m_A + m_B|", "φ·c/|m_A + m_B|", "L_a·δψ", "L_a·δψ_w",
+                              "m_l·g·σ·(x_O − x_G)", "1.25·m·g·r_rope"}) {
+    EXPECT_NE(calc.find(formula), std::string::npos) << formula;
+  }
+  // The hoist rules: in the checks table and again beside the applying element's figures.
+  EXPECT_GE(occurrences(calc, "29 CFR 1910.179(f)(2)(i)"), 2u);
+  EXPECT_GE(occurrences(calc, "29 CFR 1910.179(f)(2):"), 2u);
+}
+
+TEST(DrawingApplyCalc, WeightAppliedVariantPrintsItsMassAndMoment) {
+  const fs::path design = example_applied_by(kWeightApply, "weight-applied.toml");
+  const Shell r = solve_json(design.string());
+  ASSERT_EQ(r.status, 0) << r.out;
+  const nlohmann::json all = nlohmann::json::parse(r.out);
+  for (const auto& c : all.at("checks")) EXPECT_TRUE(c.at("ok").get<bool>()) << c.at("id");
+  const nlohmann::json& j = all.at("apply");
+  ASSERT_EQ(j.at("by"), "weight");
+  const auto d = draw(design.string(), "weight-applied.pdf");
+  const std::string calc = calculation_text(*d);
+  const auto mass = numbers_after(calc, "Hanging mass m");
+  const auto weight = numbers_after(calc, "Weight W");
+  const auto moment = numbers_after(calc, "Weight's moment M_el");
+  ASSERT_GE(mass.size(), 1u);
+  ASSERT_GE(weight.size(), 1u);
+  ASSERT_GE(moment.size(), 3u);
+  expect_printed(mass[0], j.at("weight").at("mass_kg").get<double>(), "mass [kg]");
+  expect_printed(mass[0], kWeightMass, "mass [kg], the design file");
+  expect_printed(weight[0], kWeightMass * 9.80665, "W = m·g [N]");
+  expect_printed(moment[0], kWeightMass * 9.80665 * kWeightArm, "W·a, applied [N·m], by hand");
+  const char* positions[3] = {"applied", "worn", "released"};
+  for (int i = 0; i < 3; ++i) {
+    expect_printed(moment[i], j.at("positions").at(positions[i]).at("element_moment_Nm").get<double>(),
+                   std::string("weight's moment, ") + positions[i]);
+  }
+  const auto push = numbers_after(calc, "Actuator force");
+  ASSERT_GE(push.size(), 1u);
+  expect_printed(push[0], j.at("actuator").at("force_N").get<double>(), "actuator force [N]");
+  // A weight: no spring on the sheet.
+  EXPECT_EQ(calc.find("Spring rate k"), std::string::npos);
+  EXPECT_EQ(calc.find("compression spring"), std::string::npos);
+  EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
+}
+
+TEST(DrawingApplyCalc, HandAppliedExampleShowsNoSpringSection) {
+  const auto ferry = draw(kSource + "/examples/ferry-differential.toml", "ferry-hand.pdf");
+  const std::string calc = calculation_text(*ferry);
+  EXPECT_NE(calc.find("Applied by hand"), std::string::npos);
+  for (const char* absent : {"Spring rate k", "Wire diameter d", "Actuator stroke", "Hanging mass",
+                             "compression spring", "Hoist rules"}) {
+    EXPECT_EQ(calc.find(absent), std::string::npos) << absent;
+  }
+}
+
+TEST(DrawingApplyCalc, HandAppliedHoistShowsTheFailedSelfSettingRule) {
+  // The example without [apply]: a powered hoist's holding brake applied by hand fails
+  // 29 CFR 1910.179(f)(2) ("applied automatically when power is removed").
+  const fs::path design = example_applied_by("", "hoist-by-hand.toml");
+  const auto d = draw(design.string(), "hoist-by-hand.pdf");
+  const std::string calc = calculation_text(*d);
+  EXPECT_NE(calc.find("Applied by hand"), std::string::npos);
+  EXPECT_NE(calc.find("Hoist rules"), std::string::npos);
+  // Its row in the checks table and again in the section, each ending in FAIL.
+  const std::regex failed(R"(Hoist holding brake[^\n]*FAIL)");
+  EXPECT_GE(std::distance(std::sregex_iterator(calc.begin(), calc.end(), failed), std::sregex_iterator()), 2)
+      << calc;
+  EXPECT_EQ(calc.find("Spring rate k"), std::string::npos);
+}
+
+TEST(DrawingApplyCalc, NoTwoWordsOverlapOnTheCalculationPages) {
+  const auto us = draw(kExample, "apply-overlap-us.pdf", UnitSystem::us);
+  const auto weight = draw(example_applied_by(kWeightApply, "weight-overlap.toml").string(), "apply-overlap-weight.pdf");
+  const auto a4 = draw(kExample, "apply-overlap-a4.pdf", UnitSystem::si, "A4");
+  const auto a4_us = draw(kExample, "apply-overlap-a4-us.pdf", UnitSystem::us, "A4");
+  for (const Drawn* d : std::vector<const Drawn*>{&example(), us.get(), weight.get(), a4.get(), a4_us.get()}) {
+    SCOPED_TRACE(d->pdf.string());
+    EXPECT_EQ(run("qpdf --check " + quote(d->pdf)).status, 0);
+    const std::vector<int> pages = calculation_pages(*d);
+    ASSERT_GE(pages.size(), 2u);
+    bool section = false;
+    for (int p : pages) {
+      SCOPED_TRACE("page " + std::to_string(p));
+      section = section || text_of(d->pdf, p).find("Applying the brake") != std::string::npos;
+      const auto words = cap_boxes(d->pdf, p);
+      ASSERT_FALSE(words.empty());
+      expect_no_two_words_overlap(words);
+    }
+    EXPECT_TRUE(section) << "the section is on one of the pages checked";
   }
 }
 

@@ -386,22 +386,34 @@ TEST(FabPack, CutListMatchesTheSolids) {
     const std::vector<CutListRow> rows = cut_list(b.design, b.solution, b.model);
     std::map<std::string, const CutListRow*> by_part;
     for (const CutListRow& r : rows) by_part[r.part] = &r;
-    // Every pin part and the grip appear as round bar with the solid's mass and instance count.
-    int pins = 0;
+    // The grip appears as round bar with the solid's mass: a bar d × l has its volume πd²l/4.
     for (const PartInfo& p : b.model.parts()) {
-      if (p.name.rfind("PIN-", 0) != 0 && p.name != "GRIP") continue;
+      if (p.name != "GRIP") continue;
       ASSERT_TRUE(by_part.count(p.name)) << b.name << ": " << p.name;
       const CutListRow& r = *by_part[p.name];
       EXPECT_EQ(r.stock, "round bar");
       EXPECT_EQ(r.quantity, static_cast<int>(p.instance_names.size()));
       EXPECT_NEAR(r.mass, p.mass, 1e-6 * p.mass);
-      // A round bar d × l has the solid's volume πd²l/4.
       EXPECT_NEAR(pi * r.thickness * r.thickness / 4 * r.length, p.volume, 1e-6 * p.volume);
-      if (p.name.rfind("PIN-", 0) == 0) {
-        EXPECT_NEAR(r.thickness, b.design.band.pin_diameter * 1000, 1e-9);
-        pins += r.quantity;
-      }
     }
+    // Clevis pins, washers and split pins are bought parts: one row each, the standard's
+    // designation (ISO 2341 / ISO 8738 / ISO 1234), the solid's mass and instance count.
+    int pins = 0, washers = 0, split_pins = 0;
+    for (const PartInfo& p : b.model.parts()) {
+      const bool pin = p.name.rfind("CLEVIS-PIN-", 0) == 0, washer = p.name.rfind("WASHER-", 0) == 0,
+                 split = p.name.rfind("SPLIT-PIN-", 0) == 0;
+      if (!pin && !washer && !split) continue;
+      ASSERT_TRUE(by_part.count(p.name)) << b.name << ": " << p.name;
+      const CutListRow& r = *by_part[p.name];
+      EXPECT_EQ(r.stock, "bought");
+      EXPECT_EQ(r.quantity, static_cast<int>(p.instance_names.size()));
+      EXPECT_NEAR(r.mass, p.mass, 1e-6 * p.mass);
+      const char* standard = pin ? "ISO 2341 - B - " : washer ? "ISO 8738 - " : "ISO 1234 - ";
+      EXPECT_NE(r.note.find(standard), std::string::npos) << r.note;
+      (pin ? pins : washer ? washers : split_pins) += r.quantity;
+    }
+    EXPECT_EQ(washers, 3) << b.name;
+    EXPECT_EQ(split_pins, 3) << b.name;
     EXPECT_EQ(pins, 3) << b.name;  // pivot + two band ends (no example hangs an end on the pivot)
     EXPECT_EQ(by_part.at("LEVER-PLATE")->file, "lever-plate.dxf");
     EXPECT_NEAR(by_part.at("LEVER-PLATE")->mass, info(b.model, "LEVER")->mass,

@@ -256,15 +256,25 @@ TEST(Placement, RepeatedPinsAreInstancesOfOnePart) {
   const Built x = build(read_design_file(kExample));
   // The frame plates (src/hardware.hpp) are 20 mm for this example: the lightest stock plate at
   // least as thick as the 12 mm lever that passes the single-plate bending check at end A
-  // (hand computation in tests/hardware_test.cpp). Along z, from the band's 80 mm:
-  //   pin A (frame): plate 20 + gap 4 + band 80 + 2 overhangs 4 = 108 mm;
-  //   pin B (lever): band 80 + gap 4 + lever 12 + overhangs 4 = 100 mm;
-  //   pivot: plate 20 + gap 4 + band 80 + gap 4 + lever 12 + gap 4 + front cheek 20 + 4 = 148 mm.
-  const PartInfo& pin_b = part(x.model, "PIN-D16x100");
-  EXPECT_EQ(pin_b.instance_names, std::vector<std::string>{"PIN-B"});
-  EXPECT_EQ(part(x.model, "PIN-D16x108").instance_names, std::vector<std::string>{"PIN-A"});
-  EXPECT_EQ(part(x.model, "PIN-D16x148").instance_names, std::vector<std::string>{"PIN-PIVOT"});
-  EXPECT_NEAR(pin_b.volume, pi / 4 * d_pin * d_pin * 100, 1e-6 * pin_b.volume);
+  // (hand computation in tests/hardware_test.cpp). Grips along z, from the band's 80 mm (the
+  // lever 1.5 mm further out for pin A's head under it, tests/hardware_test.cpp):
+  //   pin A (frame): plate 20 + gap 4 + band 80 = 104 mm;
+  //   pin B (lever): band 80 + gap 5.5 + lever 12 = 97.5 mm;
+  //   pivot: plate 20 + gap 4 + band 80 + gap 5.5 + lever 12 + gap 4 + front cheek 20 = 145.5 mm.
+  // ISO 2341 B Ø16: the split-pin hole's centre l − l_e (l_e 6 mm, from memory) must reach
+  // grip + washer 3 (ISO 8738, from memory) + d_1/2 2 (REFERENCE §5.9): A 109, B 102.5, pivot
+  // 150.5 mm; lengths of the series (…, 95, 100, 120, 140, 160, … from memory): A and B 120 mm
+  // (100 gives 94), the pivot 160 mm (140 gives 134).
+  const PartInfo& pin_b = part(x.model, "CLEVIS-PIN-16x120");
+  EXPECT_EQ(pin_b.instance_names, (std::vector<std::string>{"PIN-A", "PIN-B"}));
+  EXPECT_EQ(part(x.model, "CLEVIS-PIN-16x160").instance_names, std::vector<std::string>{"PIN-PIVOT"});
+  // Head Ø25 × 4.5 (REFERENCE §5.9) and shank, less the Ø4 cross hole: its volume lies between
+  // π·2²·2√(8² − 2²) (the hole's core) and π·2²·16 (a cylinder through).
+  const double solid = pi / 4 * (25.0 * 25.0 * 4.5 + d_pin * d_pin * 120);
+  EXPECT_LT(pin_b.volume, solid - pi * 4 * 2 * std::sqrt(64.0 - 4.0));
+  EXPECT_GT(pin_b.volume, solid - pi * 4 * 16);
+  EXPECT_EQ(part(x.model, "WASHER-16").instance_names,
+            (std::vector<std::string>{"WASHER-A", "WASHER-B", "WASHER-PIVOT"}));
   // One lug shape for every frame pin: three instances of one part (the pivot has two cheeks).
   EXPECT_EQ(part(x.model, "ANCHOR").instance_names,
             (std::vector<std::string>{"ANCHOR-A", "ANCHOR-PIVOT", "ANCHOR-PIVOT-FRONT"}));
@@ -279,8 +289,8 @@ TEST(MassProperties, MassIsVolumeTimesDensity) {
   // Steel 7850 kg/m³ (common practice), the drum from the design's material table.
   EXPECT_EQ(part(x.model, "BAND").density, 7850);
   EXPECT_EQ(part(x.model, "DRUM").density, x.design.drum.density);
-  // Woven lining: SG 1.6 (REFERENCE §2.2, Neale Table 7.5).
-  EXPECT_EQ(part(x.model, "LINING").density, 1600);
+  // Moulded lining: SG 2.8 (REFERENCE §2.2, Neale Table 7.5).
+  EXPECT_EQ(part(x.model, "LINING").density, 2800);
   // The drum is symmetric about its axis and its mid-plane: centroid at the origin.
   const Vec3 g = part(x.model, "DRUM").centroid;
   EXPECT_NEAR(g.x, 0, 1e-6);
@@ -310,10 +320,11 @@ TEST(Checks, AnOversizePinInItsHoleIsMeasuredAsOverlap) {
   BrakeModel::Impl& m = x.model.impl();
   const std::size_t pin = m.instances[instance_index(x.model, "PIN-B")].part;
   // 0.1 mm over the bore radius: the overlap with the 12 mm lever plate is the ring
-  // π·((ρ+0.1)² − ρ²)·12 mm; it must be reported and the check must fail.
-  const double rho = d_pin / 2, len = 100;
+  // π·((ρ+0.1)² − ρ²)·12 mm; it must be reported and the check must fail. The pin's part frame
+  // starts under its head (z = 0) and runs 120 mm along the shank.
+  const double rho = d_pin / 2, len = 120;
   m.parts[pin].shape =
-      BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(0, 0, -len / 2), gp_Dir(0, 0, 1)), rho + 0.1, len).Shape();
+      BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(0, 0, 0), gp_Dir(0, 0, 1)), rho + 0.1, len).Shape();
   run_checks(m, m.intended, /*interference=*/true);
   bool seen = false;
   for (const ContactCheck& c : m.contacts) {

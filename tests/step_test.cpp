@@ -8,6 +8,8 @@
 #include <random>
 #include <regex>
 #include <set>
+#include <cstdio>
+#include <sstream>
 #include <string>
 #include <thread>
 #include <vector>
@@ -16,6 +18,9 @@
 #include <nlohmann/json.hpp>
 
 #include <BRepGProp.hxx>
+#include <Bnd_Box.hxx>
+#include <BRepClass3d_SolidClassifier.hxx>
+#include <BRepBndLib.hxx>
 #include <GProp_GProps.hxx>
 #include <IFSelect_ReturnStatus.hxx>
 #include <Message.hxx>
@@ -157,7 +162,72 @@ TEST(StepExport, RereadGivesNamesInstancesColoursUnitsAndVolumes) {
   EXPECT_EQ(instances_seen,
             (std::set<std::string>{"DRUM", "BAND", "LINING", "LEVER", "GRIP", "ANCHOR-A",
                                    "ANCHOR-PIVOT", "ANCHOR-PIVOT-FRONT", "PIN-A", "PIN-B",
-                                   "PIN-PIVOT"}));
+                                   "PIN-PIVOT", "WASHER-A", "WASHER-B", "WASHER-PIVOT",
+                                   "SPLIT-PIN-A", "SPLIT-PIN-B", "SPLIT-PIN-PIVOT"}));
+}
+
+// Volume of a cross hole of radius r drilled through a round bar of radius R (r < R), by
+// Simpson's rule on ∫ 2√(r² − y²) · 2√(R² − y²) dy over −r…r (the chord of the bar times the
+// hole's width at height y): elementary geometry, no source needed.
+double cross_hole_volume(double r, double R) {
+  const int n = 20000;
+  const double h = 2 * r / n;
+  double sum = 0;
+  for (int i = 0; i <= n; ++i) {
+    const double y = -r + i * h;
+    const double f = 4 * std::sqrt(std::max(0.0, r * r - y * y)) * std::sqrt(R * R - y * y);
+    sum += f * (i == 0 || i == n ? 1 : i % 2 ? 4 : 2);
+  }
+  return sum * h / 3;
+}
+
+TEST(StepExport, ClevisPinsHaveHeadsAndSplitPinHoles) {
+  // The example's pins are Ø16 mm: ISO 2341 form B d_k = 25 mm, k = 4.5 mm, split-pin hole
+  // d_1 = 4 mm (REFERENCE §5.9); l_e = 6 mm from memory, so the 104 mm grip of pins A and B needs
+  // l_h ≥ 104 + 3 (ISO 8738 washer h, from memory) + 2 = 109 mm: l = 120 mm (100 gives 94).
+  const Written w = write_example("pins");
+  DocumentScope scope;
+  Handle(TDocStd_Document)& doc = scope.doc;
+  STEPCAFControl_Reader reader;
+  reader.SetNameMode(Standard_True);
+  ASSERT_EQ(reader.ReadFile(w.file.string().c_str()), IFSelect_RetDone);
+  ASSERT_TRUE(reader.Transfer(doc));
+  Handle(XCAFDoc_ShapeTool) shapes = XCAFDoc_DocumentTool::ShapeTool(doc->Main());
+  TDF_LabelSequence roots, comps;
+  shapes->GetFreeShapes(roots);
+  ASSERT_EQ(roots.Length(), 1);
+  shapes->GetComponents(roots(1), comps);
+  bool found = false;
+  for (int i = 1; i <= comps.Length(); ++i) {
+    TDF_Label part;
+    ASSERT_TRUE(shapes->GetReferredShape(comps(i), part));
+    if (name_of(part) != "CLEVIS-PIN-16x120") continue;
+    found = true;
+    const TopoDS_Shape pin = shapes->GetShape(part);
+    const double d = 16, dk = 25, k = 4.5, d1 = 4, l = 120, lh = l - 6;
+    const double pi = std::acos(-1.0);
+    const double expected = pi / 4 * (dk * dk * k + d * d * l) - cross_hole_volume(d1 / 2, d / 2);
+    EXPECT_NEAR(volume(pin), expected, 1e-4 * expected);
+    // Bounding box in the part's own frame: the head's underside at z = 0.
+    Bnd_Box box;
+    BRepBndLib::AddOptimal(pin, box, false, false);
+    double x0, y0, z0, x1, y1, z1;
+    box.Get(x0, y0, z0, x1, y1, z1);
+    EXPECT_NEAR(x1 - x0, dk, 1e-6);
+    EXPECT_NEAR(y1 - y0, dk, 1e-6);
+    EXPECT_NEAR(z0, -k, 1e-6);
+    EXPECT_NEAR(z1, l, 1e-6);
+    // The hole: empty at its centre on the axis, solid a hole's width either side of it.
+    auto inside = [&](double z) {
+      BRepClass3d_SolidClassifier c(pin, gp_Pnt(0, 0, z), 1e-7);
+      return c.State() == TopAbs_IN;
+    };
+    EXPECT_FALSE(inside(lh));
+    EXPECT_TRUE(inside(lh - d1));
+    EXPECT_TRUE(inside(lh + d1));
+    EXPECT_TRUE(inside(-k / 2));  // the head
+  }
+  EXPECT_TRUE(found);
 }
 
 TEST(StepExport, GeneratedHardwareRereadsWithNamesAndVolumes) {
@@ -229,8 +299,8 @@ TEST(StepExport, FileTextCarriesHeaderSchemaUnitsAndExactColours) {
   }
   // Readable product names, id and name alike (REFERENCE §6.2).
   // Pin lengths from the plate stack (hand sums in geometry_test's RepeatedPinsAreInstances...).
-  for (const char* n : {"DRUM", "BAND", "LINING", "LEVER", "ANCHOR", "PIN-D16x100", "PIN-D16x108",
-                        "PIN-D16x148"}) {
+  for (const char* n : {"DRUM", "BAND", "LINING", "LEVER", "ANCHOR", "CLEVIS-PIN-16x120",
+                        "CLEVIS-PIN-16x160", "WASHER-16", "SPLIT-PIN-4x25"}) {
     EXPECT_NE(text.find(std::string("PRODUCT('") + n + "','" + n + "'"), std::string::npos) << n;
   }
 }
@@ -383,9 +453,59 @@ TEST(BuildCommand, JsonIsTheOnlyThingOnStdout) {
   }
   EXPECT_TRUE(step);
   EXPECT_FALSE(fs::exists(dir / ".KFW-2207-BR.partial"));
-  // Drum, band, lining, lever, grip, anchor (one shape, three plates), three pin lengths.
-  EXPECT_EQ(j["parts"].size(), 9u);
+  // Drum, band, lining, lever, grip, anchor (one shape, three plates), two clevis pin lengths
+  // (A and B alike, the pivot), one washer and one split pin for all three.
+  EXPECT_EQ(j["parts"].size(), 10u);
   EXPECT_GE(j["contacts"].size(), 5u);
+}
+
+// `build --sheets separate`: one PDF per sheet in OUT/sheets/, in the order of the set; each is
+// one page of the size of that page in the whole set, with the same text (poppler's pdfinfo and
+// pdftotext read both), and two runs give the same bytes.
+TEST(BuildCommand, SeparateSheetsAreThePagesOfTheSet) {
+  std::string first;
+  for (int pass = 0; pass < 2; ++pass) {
+    const fs::path dir = fresh_dir("sheets-" + std::to_string(pass));
+    const auto [status, out] = run("'" + std::string(BANDFORGE_EXE) + "' build '" + kExample + "' -o '" +
+                                   dir.string() + "' --sheets separate");
+    ASSERT_EQ(status, 0) << out;
+    const fs::path whole = dir / "KFW-2207-BR.pdf";
+    auto field = [](const fs::path& pdf, const std::string& args, const std::string& key) {
+      const auto [st, text] = run("pdfinfo " + args + " '" + pdf.string() + "' 2>/dev/null");
+      EXPECT_EQ(st, 0);
+      std::istringstream in(text);
+      std::string line;
+      while (std::getline(in, line)) {
+        if (line.rfind(key, 0) == 0) return line.substr(line.find(':') + 1);
+      }
+      return std::string();
+    };
+    const int pages = std::stoi(field(whole, "", "Pages:"));
+    ASSERT_GE(pages, 6);  // assembly, at least the drum, band and lever sheets, calculation
+    std::string all;
+    for (int n = 1; n <= pages; ++n) {
+      char name[32];
+      std::snprintf(name, sizeof name, "KFW-2207-BR-%02d.pdf", n);
+      const fs::path one = dir / "sheets" / name;
+      ASSERT_TRUE(fs::exists(one)) << one;
+      EXPECT_EQ(std::stoi(field(one, "", "Pages:")), 1) << name;
+      const std::string page = "-f " + std::to_string(n) + " -l " + std::to_string(n);
+      char key[32];
+      std::snprintf(key, sizeof key, "Page %4d size:", n);  // pdfinfo pads the page number to 4
+      EXPECT_EQ(field(one, "-f 1 -l 1", "Page    1 size:"), field(whole, page, key))
+          << name;
+      const auto [a, text_one] = run("pdftotext -layout '" + one.string() + "' - 2>/dev/null");
+      const auto [b, text_whole] = run("pdftotext -layout " + page + " '" + whole.string() + "' - 2>/dev/null");
+      EXPECT_EQ(text_one, text_whole) << name;
+      EXPECT_FALSE(text_one.empty());
+      all += slurp(one.string());
+    }
+    char extra[32];
+    std::snprintf(extra, sizeof extra, "KFW-2207-BR-%02d.pdf", pages + 1);
+    EXPECT_FALSE(fs::exists(dir / "sheets" / extra));
+    if (pass == 0) first = all;
+    else EXPECT_EQ(all, first);
+  }
 }
 
 TEST(BuildCommand, UnbuildableDesignExitsThreeAndLeavesNoFiles) {

@@ -6,6 +6,7 @@
 
 #include <cerrno>
 #include <cstdio>
+#include <fstream>
 #include <cstring>
 #include <filesystem>
 #include <future>
@@ -46,10 +47,20 @@ struct BuildCommand {
   bool json = false;
   std::string dxf_version = "r2000";  ///< flat patterns: "r2000" (AC1015) or "r12" (AC1009)
   std::string units = "si";           ///< units on the PDF drawing: "si" or "us"
+  std::string sheets = "one";         ///< "one" PDF, or also "separate" PDFs, one per sheet
 };
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
 
+
+// Writes `bytes` to a staged path (the staging makes the set atomic). Throws IoError.
+void write_bytes(const std::string& path, const std::string& bytes) {
+  std::ofstream out(path, std::ios::binary | std::ios::trunc);
+  if (!out) throw IoError("cannot write " + path + ": " + std::strerror(errno));
+  out.write(bytes.data(), static_cast<std::streamsize>(bytes.size()));
+  out.close();
+  if (!out) throw IoError("cannot write " + path + " (disk full?)");
+}
 
 std::string fixed(double v, int decimals) {
   char buf[64];
@@ -181,6 +192,7 @@ void build_outputs(const BuildCommand& cmd) {
   const std::string step_path = staging.path(stem + ".step");
 #ifdef BANDFORGE_HAVE_DRAWING
   const std::string pdf_path = staging.path(stem + ".pdf");
+  std::vector<std::string> sheet_pdfs;  // written by the drawing thread, read after it joins
   // The drawing runs on the second core while this thread builds, checks and exports the model:
   // it works on its own copies of the solids (no OCCT shape is shared between the threads).
   // It shows the applied state with the released lever as a phantom line, so it needs both
@@ -199,9 +211,13 @@ void build_outputs(const BuildCommand& cmd) {
     std::optional<geom::BrakeModel> phantom;
     if (solution.hardware.release_ok) phantom = geom::build_brake(design, solution, released);
     const std::vector<geom::CutListRow> cut = geom::cut_list(design, solution, shown);
-    drawing::write_drawing(design, solution, &shown, phantom ? &*phantom : nullptr, cut,
-                           cmd.units == "us" ? UnitSystem::us : UnitSystem::si,
-                           pdf_path);
+    const UnitSystem units = cmd.units == "us" ? UnitSystem::us : UnitSystem::si;
+    if (cmd.sheets == "separate") {
+      write_bytes(pdf_path, drawing::render_drawing(design, solution, &shown, phantom ? &*phantom : nullptr,
+                                                    cut, units, nullptr, &sheet_pdfs));
+    } else {
+      drawing::write_drawing(design, solution, &shown, phantom ? &*phantom : nullptr, cut, units, pdf_path);
+    }
   });
 #endif
   geom::BuildOptions options;
@@ -212,6 +228,12 @@ void build_outputs(const BuildCommand& cmd) {
   geom::write_step(model, design, step_path);
 #ifdef BANDFORGE_HAVE_DRAWING
   drawing_done.get();  // rethrows the drawing's error, if any
+  // One file per sheet: OUT/sheets/<number>-01.pdf … in the order of the set.
+  for (std::size_t i = 0; i < sheet_pdfs.size(); ++i) {
+    char n[16];
+    std::snprintf(n, sizeof n, "-%02zu.pdf", i + 1);
+    write_bytes(staging.path("sheets/" + stem + n), sheet_pdfs[i]);
+  }
 #endif
   const geom::DxfVersion dxf =
       cmd.dxf_version == "r12" ? geom::DxfVersion::r12 : geom::DxfVersion::r2000;
@@ -333,6 +355,10 @@ void setup_build(CLI::App& app) {
                   "DXF of the flat patterns in OUTDIR/fab/: r2000 (AC1015, default) or r12 (AC1009, "
                   "no $INSUNITS)")
       ->check(CLI::IsMember({"r2000", "r12"}));
+  sub->add_option("--sheets", cmd->sheets,
+                  "one: the drawing set as one PDF; separate: also each sheet as its own PDF in "
+                  "OUTDIR/sheets/")
+      ->check(CLI::IsMember({"one", "separate"}));
   sub->add_option("--units", cmd->units, "units on the PDF drawing: si (mm, N, MPa) or us (in, lbf, psi)")
       ->check(CLI::IsMember({"si", "us"}));
   sub->callback([cmd] { run_build(*cmd); });
