@@ -86,6 +86,31 @@ Written write_example(const std::string& dir) {
   return {std::move(d), std::move(m), file};
 }
 
+// The STEP file read back with names: the shape tool and the components of its one root assembly.
+struct Reread {
+  Handle(XCAFDoc_ShapeTool) shapes;
+  TDF_LabelSequence comps;
+};
+
+Reread reread(DocumentScope& scope, const fs::path& file) {
+  Reread r;
+  STEPCAFControl_Reader reader;
+  reader.SetNameMode(Standard_True);
+  if (reader.ReadFile(file.string().c_str()) != IFSelect_RetDone || !reader.Transfer(scope.doc)) {
+    ADD_FAILURE() << "cannot read back " << file;
+    return r;
+  }
+  r.shapes = XCAFDoc_DocumentTool::ShapeTool(scope.doc->Main());
+  TDF_LabelSequence roots;
+  r.shapes->GetFreeShapes(roots);
+  if (roots.Length() != 1) {
+    ADD_FAILURE() << roots.Length() << " root shapes in " << file;
+    return r;
+  }
+  r.shapes->GetComponents(roots(1), r.comps);
+  return r;
+}
+
 TEST(StepExport, RereadGivesNamesInstancesColoursUnitsAndVolumes) {
   const Written w = write_example("reread");
   DocumentScope scope;  // closes the document at the end of the test
@@ -187,16 +212,8 @@ TEST(StepExport, ClevisPinsHaveHeadsAndSplitPinHoles) {
   // l_h ≥ 104 + 3 (ISO 8738 washer h, from memory) + 2 = 109 mm: l = 120 mm (100 gives 94).
   const Written w = write_example("pins");
   DocumentScope scope;
-  Handle(TDocStd_Document)& doc = scope.doc;
-  STEPCAFControl_Reader reader;
-  reader.SetNameMode(Standard_True);
-  ASSERT_EQ(reader.ReadFile(w.file.string().c_str()), IFSelect_RetDone);
-  ASSERT_TRUE(reader.Transfer(doc));
-  Handle(XCAFDoc_ShapeTool) shapes = XCAFDoc_DocumentTool::ShapeTool(doc->Main());
-  TDF_LabelSequence roots, comps;
-  shapes->GetFreeShapes(roots);
-  ASSERT_EQ(roots.Length(), 1);
-  shapes->GetComponents(roots(1), comps);
+  const auto [shapes, comps] = reread(scope, w.file);
+  ASSERT_FALSE(shapes.IsNull());
   bool found = false;
   for (int i = 1; i <= comps.Length(); ++i) {
     TDF_Label part;
@@ -248,16 +265,8 @@ TEST(StepExport, GeneratedHardwareRereadsWithNamesAndVolumes) {
     const fs::path file = fresh_dir("generated-" + expected[0]) / "g.step";
     write_step(m, d, file.string());
     DocumentScope scope;
-    Handle(TDocStd_Document)& doc = scope.doc;
-    STEPCAFControl_Reader reader;
-    reader.SetNameMode(Standard_True);
-    ASSERT_EQ(reader.ReadFile(file.string().c_str()), IFSelect_RetDone);
-    ASSERT_TRUE(reader.Transfer(doc));
-    Handle(XCAFDoc_ShapeTool) shapes = XCAFDoc_DocumentTool::ShapeTool(doc->Main());
-    TDF_LabelSequence roots, comps;
-    shapes->GetFreeShapes(roots);
-    ASSERT_EQ(roots.Length(), 1);
-    shapes->GetComponents(roots(1), comps);
+    const auto [shapes, comps] = reread(scope, file);
+    ASSERT_FALSE(shapes.IsNull());
     std::map<std::string, double> reread;  // instance name → volume of its product
     for (int i = 1; i <= comps.Length(); ++i) {
       TDF_Label part;
