@@ -262,21 +262,20 @@ TopoDS_Shape make_ring(double inner_diameter, double outer_diameter, double z0, 
 }
 
 TopoDS_Shape make_split_pin(double pin_diameter, double leg_diameter, double eye_width, bool with_legs) {
-  const double r = pin_diameter / 2, rl = leg_diameter / 2;
-  const double legs_from = -r - leg_diameter, legs_to = r + leg_diameter / 2;  // into the eye
-  const TopoDS_Shape legs =
-      BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(legs_from, 0, 0), gp_Dir(1, 0, 0)), rl, legs_to - legs_from)
-          .Shape();
-  // The eye as a flat disc of its width and the wire's thickness: a torus would cost the
-  // drawing's hidden-line removal seconds for a part a few millimetres across.
-  const TopoDS_Shape eye =
-      BRepPrimAPI_MakeCylinder(gp_Ax2(gp_Pnt(r + eye_width / 2, 0, -rl), gp_Dir(0, 0, 1)), eye_width / 2,
-                               leg_diameter)
-          .Shape();
-  if (!with_legs) return eye;
-  BRepAlgoAPI_Fuse fuse(legs, eye);
-  if (!fuse.IsDone()) throw Standard_Failure("the split pin's eye could not be joined to its legs");
-  return fuse.Shape();
+  // One flat outline in the plane z = 0, extruded across it: the legs a bar from beyond the pin's
+  // far side into the eye, the eye a disc of its width beside the pin on +x. A bar 0.7 d thick
+  // and wide passes the round hole (its diagonal 0.99 d is below d ≤ d₁). No boolean: a fused
+  // cylinder and disc cost the build a boolean and the drawing its intersection curves.
+  const double r = pin_diameter / 2, h = 0.35 * leg_diameter;
+  const double re = eye_width / 2, xc = r + re;
+  const double from = with_legs ? -r - leg_diameter : r;
+  const double xi = xc - std::sqrt(re * re - h * h);  // where the bar's sides meet the eye
+  Profile p(-h);
+  p.line({from, -h}, {xi, -h});
+  p.arc({xi, -h}, {xc + re, 0}, {xi, h});
+  p.line({xi, h}, {from, h});
+  p.line({from, h}, {from, -h});
+  return extrude(p.wire(), {}, -h, 2 * h);
 }
 
 }  // namespace bandforge::geom

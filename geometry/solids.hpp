@@ -88,10 +88,10 @@ TopoDS_Shape make_clevis_pin(const ClevisPinDims& d, bool with_hole = true);
 /// A flat ring (washer, spacer sleeve) about z from z0 to z0 + height [mm].
 TopoDS_Shape make_ring(double inner_diameter, double outer_diameter, double z0, double height);
 
-/// A split pin as fitted, simplified: its legs a rod of `leg_diameter` along x through a pin of
-/// `pin_diameter` on the z axis, cut where they bend back round it, and its eye a flat disc of
-/// `eye_width` beside the pin on +x, at z = 0 [mm].
-/// `with_legs` false: the eye alone (the drawing's copies).
+/// A split pin as fitted, simplified to one flat piece 0.7 × its leg diameter thick: its legs a
+/// bar along x through a pin of `pin_diameter` on the z axis, cut where they bend back round it,
+/// its eye a disc of `eye_width` beside the pin on +x, centred on z = 0 [mm]. `with_legs` false:
+/// the eye alone.
 TopoDS_Shape make_split_pin(double pin_diameter, double leg_diameter, double eye_width,
                             bool with_legs = true);
 
