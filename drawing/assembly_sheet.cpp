@@ -255,86 +255,86 @@ AssemblyPlan plan_assembly(const Canvas& c, const Design& d, const Solution& s,
   // On a portrait sheet every zone spans the frame; when the views then fit at no scale, the
   // results table (repeated on the calculation sheet) is left out and a note says where it is.
   for (const bool without_results : {false, true}) {
-  if (without_results && !(sheet.height > sheet.width)) break;
-  plan.results_omitted = without_results;
-  {
-    const Box f = frame_box(sheet);
-    const double notes_w = sheet.width > sheet.height ? title_block_box(sheet).x0 - f.x0 - 2 * kGap
-                                                      : f.width() - 2 * kGap;
-    std::vector<std::string> notes = general_notes(d, s, any);
-    if (without_results) notes.push_back(kResultsElsewhere);
-    plan.zones = make_zones(c, sheet, without_results ? 0.0 : table_height(c, results_table(d, s, any)),
-                            table_height(c, parts_table(model, any)),
-                            notes_lines(c, notes, notes_w));
-  }
-  const Box area = plan.zones.views;
-  std::vector<Scale> tried;
-  if (d.drawing.scale_num > 0 && d.drawing.scale_den > 0) {
-    tried.push_back({d.drawing.scale_num, d.drawing.scale_den});
-  } else {
-    tried = standard_scales();
-  }
-  const std::vector<Box> blocked = obstacles(plan.zones);
-  const std::optional<Placement> free_run = place_views(plan, d, tried, blocked);
-  std::optional<Placement> chosen;
-  if (sheets.empty()) {
-    chosen = free_run;
-  } else {
-    // The list of sheets: one column of entries, else two side by side (half as tall).
-    const Table lists[2] = {sheet_list_table(c, sheets, 1), sheet_list_table(c, sheets, 2)};
-    // Its own place (above the parts list), where the views keep the scale they have without it;
-    // when `any_scale`, at whatever scale the views then fit.
-    auto own_place = [&](bool any_scale) {
-      for (const Table& t : lists) {
-        Zones z = plan.zones;
-        z.sheets = list_zone(z, sheet, t.width(), table_height(c, t));
-        if (z.sheets.y1 > area.y1) continue;  // taller than the sheet has room for
-        std::optional<Placement> run = place_views(plan, d, tried, obstacles(z));
-        if (run && (any_scale || !free_run || run->scale.factor() >= free_run->scale.factor())) {
-          plan.zones = z;
-          plan.sheet_list = t;
-          chosen = run;
-          return;
-        }
-      }
-    };
-    own_place(false);
-    // Else in free space beside the views as they are placed without it.
-    if (!chosen && free_run) {
-      const Box own = list_zone(plan.zones, sheet, 0, 0);
-      for (const Table& t : lists) {
-        const std::optional<Box> spot =
-            free_spot(area, t.width(), table_height(c, t), free_run->foot, blocked, {own.x1, own.y0});
-        if (spot) {
-          plan.zones.sheets = *spot;
-          plan.sheet_list = t;
-          chosen = free_run;
-          break;
-        }
-      }
+    if (without_results && !(sheet.height > sheet.width)) break;
+    plan.results_omitted = without_results;
+    {
+      const Box f = frame_box(sheet);
+      const double notes_w = sheet.width > sheet.height ? title_block_box(sheet).x0 - f.x0 - 2 * kGap
+                                                        : f.width() - 2 * kGap;
+      std::vector<std::string> notes = general_notes(d, s, any);
+      if (without_results) notes.push_back(kResultsElsewhere);
+      plan.zones = make_zones(c, sheet, without_results ? 0.0 : table_height(c, results_table(d, s, any)),
+                              table_height(c, parts_table(model, any)),
+                              notes_lines(c, notes, notes_w));
     }
-    if (!chosen) own_place(true);
-    // Else (A4 portrait, where every zone spans the frame and the views keep 2 mm to spare) the
-    // views as they are, and a note in place of the list.
-    if (!chosen && free_run) {
+    const Box area = plan.zones.views;
+    std::vector<Scale> tried;
+    if (d.drawing.scale_num > 0 && d.drawing.scale_den > 0) {
+      tried.push_back({d.drawing.scale_num, d.drawing.scale_den});
+    } else {
+      tried = standard_scales();
+    }
+    const std::vector<Box> blocked = obstacles(plan.zones);
+    const std::optional<Placement> free_run = place_views(plan, d, tried, blocked);
+    std::optional<Placement> chosen;
+    if (sheets.empty()) {
       chosen = free_run;
-      plan.sheet_list_omitted = true;
+    } else {
+      // The list of sheets: one column of entries, else two side by side (half as tall).
+      const Table lists[2] = {sheet_list_table(c, sheets, 1), sheet_list_table(c, sheets, 2)};
+      // Its own place (above the parts list), where the views keep the scale they have without it;
+      // when `any_scale`, at whatever scale the views then fit.
+      auto own_place = [&](bool any_scale) {
+        for (const Table& t : lists) {
+          Zones z = plan.zones;
+          z.sheets = list_zone(z, sheet, t.width(), table_height(c, t));
+          if (z.sheets.y1 > area.y1) continue;  // taller than the sheet has room for
+          std::optional<Placement> run = place_views(plan, d, tried, obstacles(z));
+          if (run && (any_scale || !free_run || run->scale.factor() >= free_run->scale.factor())) {
+            plan.zones = z;
+            plan.sheet_list = t;
+            chosen = run;
+            return;
+          }
+        }
+      };
+      own_place(false);
+      // Else in free space beside the views as they are placed without it.
+      if (!chosen && free_run) {
+        const Box own = list_zone(plan.zones, sheet, 0, 0);
+        for (const Table& t : lists) {
+          const std::optional<Box> spot =
+              free_spot(area, t.width(), table_height(c, t), free_run->foot, blocked, {own.x1, own.y0});
+          if (spot) {
+            plan.zones.sheets = *spot;
+            plan.sheet_list = t;
+            chosen = free_run;
+            break;
+          }
+        }
+      }
+      if (!chosen) own_place(true);
+      // Else (A4 portrait, where every zone spans the frame and the views keep 2 mm to spare) the
+      // views as they are, and a note in place of the list.
+      if (!chosen && free_run) {
+        chosen = free_run;
+        plan.sheet_list_omitted = true;
+      }
     }
-  }
-  if (chosen) {
-    const double k = chosen->scale.factor();
-    const auto& F = plan.front;
-    const auto& S = plan.side;
-    plan.scale = chosen->scale;
-    plan.front_origin = chosen->origin;
-    plan.side_origin = {chosen->origin.x + chosen->dx, chosen->origin.y};
-    plan.drum_centre = plan.front_origin;
-    plan.views_box = {std::min(plan.front_origin.x + F.min.x * k, plan.side_origin.x + S.min.x * k),
-                      plan.front_origin.y + std::min(F.min.y, S.min.y) * k,
-                      std::max(plan.front_origin.x + F.max.x * k, plan.side_origin.x + S.max.x * k),
-                      plan.front_origin.y + std::max(F.max.y, S.max.y) * k};
-    return plan;
-  }
+    if (chosen) {
+      const double k = chosen->scale.factor();
+      const auto& F = plan.front;
+      const auto& S = plan.side;
+      plan.scale = chosen->scale;
+      plan.front_origin = chosen->origin;
+      plan.side_origin = {chosen->origin.x + chosen->dx, chosen->origin.y};
+      plan.drum_centre = plan.front_origin;
+      plan.views_box = {std::min(plan.front_origin.x + F.min.x * k, plan.side_origin.x + S.min.x * k),
+                        plan.front_origin.y + std::min(F.min.y, S.min.y) * k,
+                        std::max(plan.front_origin.x + F.max.x * k, plan.side_origin.x + S.max.x * k),
+                        plan.front_origin.y + std::max(F.max.y, S.max.y) * k};
+      return plan;
+    }
   }
   const Box area = plan.zones.views;
   std::vector<Scale> tried = standard_scales();

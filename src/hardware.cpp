@@ -567,171 +567,171 @@ StackPush place_pin_ends(HardwarePlan& plan, const Design& design, double turn,
     double cost = 0;
   };
   auto run = [&](unsigned mask, const std::vector<std::size_t>& order) {
-  Outcome out;
-  out.pins = plan.pins;
-  StackPush& extra = out.extra;
-  for (std::size_t step = 0; step < order.size(); ++step) {
-    const std::size_t i = order[step];
-    PinPlan& p = out.pins[i];
-    const bool moves = p.on_lever && p.id != "PIVOT";
-    const double grip = p.grip_front - p.grip_back;
-    // A tube wall of 1.5 mm or 0.1 d (common practice, no source: a spacer carries only the
-    // washer's axial push), on a band-end pin no thicker than the band (it then clears the drum
-    // and the band as the band's eye does).
-    const double wall = std::max(0.0015, 0.1 * p.set.pin.d);
-    p.sleeve_diameter = p.set.pin.d + 2 * (p.carries_band ? std::min(wall, design.band.thickness) : wall);
-    struct Option {
-      bool head_front = false;
-      double sleeve_back = 0, sleeve_front = 0;
-      standard::PinSet set;
-      double cost = 0;
-      int unresolved = 0;
-      StackPush push;
-      std::string first_unresolved;
-      std::array<double, 2> past{0, 0};  ///< sleeve each end would need to pass what it meets
-    };
-    auto evaluate = [&](bool head_front, double sleeve_back, double sleeve_front) {
-      Option o;
-      o.head_front = head_front;
-      o.sleeve_back = sleeve_back;
-      o.sleeve_front = sleeve_front;
-      o.set = standard::choose_pin(design.band.pin_diameter, grip + sleeve_back + sleeve_front);
-      PinPlan trial = p;
-      trial.head_front = head_front;
-      trial.sleeve_back = sleeve_back;
-      trial.sleeve_front = sleeve_front;
-      trial.set = o.set;
-      // Only the drum's rim, standing beside a narrower band, and another pin's end are passed
-      // with a sleeve.
-      auto miss = [&](const std::string& text, bool front, double far, bool drum) {
-        ++o.unresolved;
-        if (o.first_unresolved.empty()) o.first_unresolved = text;
-        if (!drum) return;
-        const double face = front ? p.grip_front : p.grip_back;
-        o.past[front ? 1 : 0] = std::max(o.past[front ? 1 : 0], (front ? far - face : face - far) + zc);
+    Outcome out;
+    out.pins = plan.pins;
+    StackPush& extra = out.extra;
+    for (std::size_t step = 0; step < order.size(); ++step) {
+      const std::size_t i = order[step];
+      PinPlan& p = out.pins[i];
+      const bool moves = p.on_lever && p.id != "PIVOT";
+      const double grip = p.grip_front - p.grip_back;
+      // A tube wall of 1.5 mm or 0.1 d (common practice, no source: a spacer carries only the
+      // washer's axial push), on a band-end pin no thicker than the band (it then clears the drum
+      // and the band as the band's eye does).
+      const double wall = std::max(0.0015, 0.1 * p.set.pin.d);
+      p.sleeve_diameter = p.set.pin.d + 2 * (p.carries_band ? std::min(wall, design.band.thickness) : wall);
+      struct Option {
+        bool head_front = false;
+        double sleeve_back = 0, sleeve_front = 0;
+        standard::PinSet set;
+        double cost = 0;
+        int unresolved = 0;
+        StackPush push;
+        std::string first_unresolved;
+        std::array<double, 2> past{0, 0};  ///< sleeve each end would need to pass what it meets
       };
-      for (const auto& [head, seg] : ends_of(trial)) {
-        const bool front = seg.z0 >= p.grip_front - 1e-9;
-        const std::string part = seg.sleeve ? "the spacer sleeve" : head ? "the head" : "the washer and split pin";
-        const std::string what = part + " of pin " + p.id + " (" + (front ? "front" : "back") + " face)";
-        for (const Body& b : bodies) {
-          if (b.pin == static_cast<int>(i)) continue;
-          // The plates it holds (and anything else within its grip) the ends only touch.
-          if (b.z0 >= p.grip_back - 1e-9 && b.z1 <= p.grip_front + 1e-9) continue;
-          // A band-carrying pin's sleeve is no thicker than the band's eye.
-          if (seg.sleeve && p.carries_band && (b.band || b.name == "the drum")) continue;
-          if (seg.z0 >= b.z1 + zc - 1e-12 || b.z0 >= seg.z1 + zc - 1e-12) continue;  // apart axially
-          const Vec2 centre{p.at.x + seg.offset.x, p.at.y + seg.offset.y};
-          const double c = clearance_to(centre, seg.r, moves, b);
-          // Beside another pin's shank that keeps its place relative to this one, a small gap.
-          const bool steady = b.pin >= 0 && (b.moves == moves || b.name == "pin PIVOT");
-          if (c >= (steady ? steady_gap : clearance)) continue;
-          double need = 0;
-          double* slot = nullptr;
-          if (!front && b.layer == Body::Layer::behind) {
-            need = b.z1 + zc - seg.z0;
-            slot = &o.push.behind;
-          } else if (!front && b.layer == Body::Layer::core && p.grip_back >= ax.lever_back - 1e-9) {
-            need = b.z1 + zc - seg.z0;
-            slot = &o.push.lever;
-          } else if (front && b.layer == Body::Layer::lever && !moves && p.grip_front < ax.lever_back + 1e-9) {
-            need = seg.z1 + zc - b.z0;
-            slot = &o.push.lever;
-          } else if (front && b.layer == Body::Layer::front && p.grip_front <= ax.grip_front + 1e-9) {
-            need = seg.z1 + zc - b.z0;
-            slot = &o.push.front;
-          }
-          if (slot) {
-            if (need > *slot) {
-              *slot = need;
-              o.push.why = what + " meets " + b.name + " across the axial gap";
-            }
-            o.cost += need;
-          } else {
-            miss(what + " meets " + b.name + ": move " + end_key(p.id) + " at least " +
-                     mm((steady ? steady_gap : clearance) - c + 0.0001) + " mm further from " +
-                     (b.pin >= 0 ? end_key(plan.pins[static_cast<std::size_t>(b.pin)].id) : b.name),
-                 front, front ? b.z1 : b.z0, b.name == "the drum");
-          }
-        }
-        // The other pins' ends already placed.
-        for (std::size_t e = 0; e < step; ++e) {
-          const PinPlan& q = out.pins[order[e]];
-          const bool q_moves = q.on_lever && q.id != "PIVOT";
-          for (const auto& [qhead, qseg] : ends_of(q)) {
-            if (seg.z0 >= qseg.z1 + zc - 1e-12 || qseg.z0 >= seg.z1 + zc - 1e-12) continue;
-            Body qb{std::string(qseg.sleeve ? "the spacer sleeve" : qhead ? "the head" : "the washer and split pin") +
-                        " of pin " + q.id,
-                    {{q.at.x + qseg.offset.x, q.at.y + qseg.offset.y}}, qseg.r, qseg.z0, qseg.z1};
-            qb.moves = q_moves;
-            // Ends that keep their places relative to each other need only a small gap (the
-            // pivot's stay at their distance from a lever pin as the lever turns).
-            const double need = q_moves == moves || q.id == "PIVOT" ? steady_gap : clearance;
+      auto evaluate = [&](bool head_front, double sleeve_back, double sleeve_front) {
+        Option o;
+        o.head_front = head_front;
+        o.sleeve_back = sleeve_back;
+        o.sleeve_front = sleeve_front;
+        o.set = standard::choose_pin(design.band.pin_diameter, grip + sleeve_back + sleeve_front);
+        PinPlan trial = p;
+        trial.head_front = head_front;
+        trial.sleeve_back = sleeve_back;
+        trial.sleeve_front = sleeve_front;
+        trial.set = o.set;
+        // Only the drum's rim, standing beside a narrower band, and another pin's end are passed
+        // with a sleeve.
+        auto miss = [&](const std::string& text, bool front, double far, bool drum) {
+          ++o.unresolved;
+          if (o.first_unresolved.empty()) o.first_unresolved = text;
+          if (!drum) return;
+          const double face = front ? p.grip_front : p.grip_back;
+          o.past[front ? 1 : 0] = std::max(o.past[front ? 1 : 0], (front ? far - face : face - far) + zc);
+        };
+        for (const auto& [head, seg] : ends_of(trial)) {
+          const bool front = seg.z0 >= p.grip_front - 1e-9;
+          const std::string part = seg.sleeve ? "the spacer sleeve" : head ? "the head" : "the washer and split pin";
+          const std::string what = part + " of pin " + p.id + " (" + (front ? "front" : "back") + " face)";
+          for (const Body& b : bodies) {
+            if (b.pin == static_cast<int>(i)) continue;
+            // The plates it holds (and anything else within its grip) the ends only touch.
+            if (b.z0 >= p.grip_back - 1e-9 && b.z1 <= p.grip_front + 1e-9) continue;
+            // A band-carrying pin's sleeve is no thicker than the band's eye.
+            if (seg.sleeve && p.carries_band && (b.band || b.name == "the drum")) continue;
+            if (seg.z0 >= b.z1 + zc - 1e-12 || b.z0 >= seg.z1 + zc - 1e-12) continue;  // apart axially
             const Vec2 centre{p.at.x + seg.offset.x, p.at.y + seg.offset.y};
-            const double c = clearance_to(centre, seg.r, moves, qb);
-            if (c >= need) continue;
-            // An end on the lever's back face and one below the lever: move the lever out.
-            const bool p_on_lever_back = !front && p.grip_back >= ax.lever_back - 1e-9 && qseg.z1 <= ax.lever_back + 1e-9;
-            const bool q_on_lever_back = front && p.grip_front <= ax.lever_back + 1e-9 && qseg.z0 >= ax.lever_back - 1e-9 &&
-                                         !moves;
-            if (p_on_lever_back || q_on_lever_back) {
-              const double widen = p_on_lever_back ? qseg.z1 + zc - seg.z0 : seg.z1 + zc - qseg.z0;
-              if (widen > o.push.lever) {
-                o.push.lever = widen;
-                o.push.why = what + " meets " + qb.name + " across the axial gap";
-              }
-              o.cost += widen;
-              continue;
+            const double c = clearance_to(centre, seg.r, moves, b);
+            // Beside another pin's shank that keeps its place relative to this one, a small gap.
+            const bool steady = b.pin >= 0 && (b.moves == moves || b.name == "pin PIVOT");
+            if (c >= (steady ? steady_gap : clearance)) continue;
+            double need = 0;
+            double* slot = nullptr;
+            if (!front && b.layer == Body::Layer::behind) {
+              need = b.z1 + zc - seg.z0;
+              slot = &o.push.behind;
+            } else if (!front && b.layer == Body::Layer::core && p.grip_back >= ax.lever_back - 1e-9) {
+              need = b.z1 + zc - seg.z0;
+              slot = &o.push.lever;
+            } else if (front && b.layer == Body::Layer::lever && !moves && p.grip_front < ax.lever_back + 1e-9) {
+              need = seg.z1 + zc - b.z0;
+              slot = &o.push.lever;
+            } else if (front && b.layer == Body::Layer::front && p.grip_front <= ax.grip_front + 1e-9) {
+              need = seg.z1 + zc - b.z0;
+              slot = &o.push.front;
             }
-            miss(what + " meets " + qb.name + ": move " + end_key(p.id) + " at least " +
-                     mm(need - c + 0.0001) + " mm further from " + end_key(q.id),
-                 front, front ? qseg.z1 : qseg.z0, true);
+            if (slot) {
+              if (need > *slot) {
+                *slot = need;
+                o.push.why = what + " meets " + b.name + " across the axial gap";
+              }
+              o.cost += need;
+            } else {
+              miss(what + " meets " + b.name + ": move " + end_key(p.id) + " at least " +
+                       mm((steady ? steady_gap : clearance) - c + 0.0001) + " mm further from " +
+                       (b.pin >= 0 ? end_key(plan.pins[static_cast<std::size_t>(b.pin)].id) : b.name),
+                   front, front ? b.z1 : b.z0, b.name == "the drum");
+            }
+          }
+          // The other pins' ends already placed.
+          for (std::size_t e = 0; e < step; ++e) {
+            const PinPlan& q = out.pins[order[e]];
+            const bool q_moves = q.on_lever && q.id != "PIVOT";
+            for (const auto& [qhead, qseg] : ends_of(q)) {
+              if (seg.z0 >= qseg.z1 + zc - 1e-12 || qseg.z0 >= seg.z1 + zc - 1e-12) continue;
+              Body qb{std::string(qseg.sleeve ? "the spacer sleeve" : qhead ? "the head" : "the washer and split pin") +
+                          " of pin " + q.id,
+                      {{q.at.x + qseg.offset.x, q.at.y + qseg.offset.y}}, qseg.r, qseg.z0, qseg.z1};
+              qb.moves = q_moves;
+              // Ends that keep their places relative to each other need only a small gap (the
+              // pivot's stay at their distance from a lever pin as the lever turns).
+              const double need = q_moves == moves || q.id == "PIVOT" ? steady_gap : clearance;
+              const Vec2 centre{p.at.x + seg.offset.x, p.at.y + seg.offset.y};
+              const double c = clearance_to(centre, seg.r, moves, qb);
+              if (c >= need) continue;
+              // An end on the lever's back face and one below the lever: move the lever out.
+              const bool p_on_lever_back = !front && p.grip_back >= ax.lever_back - 1e-9 && qseg.z1 <= ax.lever_back + 1e-9;
+              const bool q_on_lever_back = front && p.grip_front <= ax.lever_back + 1e-9 && qseg.z0 >= ax.lever_back - 1e-9 &&
+                                           !moves;
+              if (p_on_lever_back || q_on_lever_back) {
+                const double widen = p_on_lever_back ? qseg.z1 + zc - seg.z0 : seg.z1 + zc - qseg.z0;
+                if (widen > o.push.lever) {
+                  o.push.lever = widen;
+                  o.push.why = what + " meets " + qb.name + " across the axial gap";
+                }
+                o.cost += widen;
+                continue;
+              }
+              miss(what + " meets " + qb.name + ": move " + end_key(p.id) + " at least " +
+                       mm(need - c + 0.0001) + " mm further from " + end_key(q.id),
+                   front, front ? qseg.z1 : qseg.z0, true);
+            }
           }
         }
+        return o;
+      };
+      auto worse = [](const Option& x, const Option& y) {
+        if (x.unresolved != y.unresolved) return x.unresolved > y.unresolved;
+        return x.cost + x.sleeve_back + x.sleeve_front > y.cost + y.sleeve_back + y.sleeve_front + 1e-9;
+      };
+      // A spacer sleeve takes an end past the drum's rim beside a narrower band.
+      const bool head_front = (mask >> i) & 1u;
+      // The split pin's eye: away from the drum's axis, else the first of eight directions that
+      // clears.
+      const double outward = std::atan2(p.at.y, p.at.x);
+      Option best;
+      double best_angle = outward;
+      for (int turn8 = 0; turn8 < 8; ++turn8) {
+        p.split_angle = outward + turn8 * pi / 4;
+        Option o = evaluate(head_front, 0, 0);
+        if (o.unresolved > 0) {
+          const Option sleeved = evaluate(head_front, o.past[0], o.past[1]);
+          if (worse(o, sleeved)) o = sleeved;
+        }
+        if (turn8 == 0 || worse(best, o)) {
+          best = o;
+          best_angle = p.split_angle;
+        }
+        if (best.unresolved == 0) break;
       }
-      return o;
-    };
-    auto worse = [](const Option& x, const Option& y) {
-      if (x.unresolved != y.unresolved) return x.unresolved > y.unresolved;
-      return x.cost + x.sleeve_back + x.sleeve_front > y.cost + y.sleeve_back + y.sleeve_front + 1e-9;
-    };
-    // A spacer sleeve takes an end past the drum's rim beside a narrower band.
-    const bool head_front = (mask >> i) & 1u;
-    // The split pin's eye: away from the drum's axis, else the first of eight directions that
-    // clears.
-    const double outward = std::atan2(p.at.y, p.at.x);
-    Option best;
-    double best_angle = outward;
-    for (int turn8 = 0; turn8 < 8; ++turn8) {
-      p.split_angle = outward + turn8 * pi / 4;
-      Option o = evaluate(head_front, 0, 0);
-      if (o.unresolved > 0) {
-        const Option sleeved = evaluate(head_front, o.past[0], o.past[1]);
-        if (worse(o, sleeved)) o = sleeved;
-      }
-      if (turn8 == 0 || worse(best, o)) {
-        best = o;
-        best_angle = p.split_angle;
-      }
-      if (best.unresolved == 0) break;
+      p.split_angle = best_angle;
+      p.head_front = best.head_front;
+      p.sleeve_back = best.sleeve_back;
+      p.sleeve_front = best.sleeve_front;
+      p.set = best.set;
+      const double k = p.set.head_reach(), tail = p.set.tail_reach();
+      p.z_back = p.grip_back - p.sleeve_back - (p.head_front ? tail : k);
+      p.z_front = p.grip_front + p.sleeve_front + (p.head_front ? k : tail);
+      extra.behind = std::max(extra.behind, best.push.behind);
+      extra.lever = std::max(extra.lever, best.push.lever);
+      extra.front = std::max(extra.front, best.push.front);
+      if (!best.push.why.empty()) extra.why = best.push.why;
+      if (best.unresolved > 0 && extra.unresolved.empty()) extra.unresolved = best.first_unresolved;
+      out.unresolved += best.unresolved;
+      out.cost += best.cost + best.sleeve_back + best.sleeve_front;
     }
-    p.split_angle = best_angle;
-    p.head_front = best.head_front;
-    p.sleeve_back = best.sleeve_back;
-    p.sleeve_front = best.sleeve_front;
-    p.set = best.set;
-    const double k = p.set.head_reach(), tail = p.set.tail_reach();
-    p.z_back = p.grip_back - p.sleeve_back - (p.head_front ? tail : k);
-    p.z_front = p.grip_front + p.sleeve_front + (p.head_front ? k : tail);
-    extra.behind = std::max(extra.behind, best.push.behind);
-    extra.lever = std::max(extra.lever, best.push.lever);
-    extra.front = std::max(extra.front, best.push.front);
-    if (!best.push.why.empty()) extra.why = best.push.why;
-    if (best.unresolved > 0 && extra.unresolved.empty()) extra.unresolved = best.first_unresolved;
-    out.unresolved += best.unresolved;
-    out.cost += best.cost + best.sleeve_back + best.sleeve_front;
-  }
-  return out;
+    return out;
   };
   // Heads at the back and split pins in front, where they are seen and serviced (mask 0), unless
   // another choice needs less.
