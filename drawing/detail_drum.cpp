@@ -33,14 +33,25 @@ struct DrumSection {
 // The levels of the upper cut face (v > 0): every vertex grouped by v; a drum has four (bore,
 // hub, rim inside, friction surface), each with the u of the faces that meet there.
 DrumSection measure(const geom::ProjectedView& section) {
-  std::map<long, std::vector<double>> levels;  // v in µm → u values
+  // Vertices within 0.01 mm of each other radially are one level: a size converted from inches
+  // can leave two vertices of one level a rounding apart, on either side of a µm.
+  std::vector<geom::Point2> upper;
   for (const geom::SectionFace& f : section.sections) {
     for (const auto& loop : f.loops) {
       double cy = 0;
       for (geom::Point2 p : loop) cy += p.y;
       if (cy <= 0) continue;  // the lower half mirrors the upper one
-      for (geom::Point2 p : loop) levels[std::lround(p.y * 1000)].push_back(p.x);
+      upper.insert(upper.end(), loop.begin(), loop.end());
     }
+  }
+  std::sort(upper.begin(), upper.end(), [](geom::Point2 a, geom::Point2 b) { return a.y < b.y; });
+  std::map<long, std::vector<double>> levels;  // first v of the level in µm → u values
+  long key = 0;
+  double last = -1e300;
+  for (geom::Point2 p : upper) {
+    if (p.y - last > 0.01) key = std::lround(p.y * 1000);
+    last = p.y;
+    levels[key].push_back(p.x);
   }
   if (levels.size() != 4) {
     throw BuildError("drawing: the drum's section has " + std::to_string(levels.size()) +
