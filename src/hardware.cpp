@@ -746,8 +746,11 @@ StackPush place_pin_ends(HardwarePlan& plan, const Design& design, double turn,
           (o.unresolved == chosen->unresolved && o.cost < chosen->cost - 1e-9)) {
         chosen = std::move(o);
       }
+      // Nothing met and nothing widened: no later choice can be strictly better (the same choice
+      // as running them all, found sooner).
+      if (chosen->unresolved == 0 && chosen->cost == 0) break;
     }
-    if (chosen->unresolved == 0 && chosen->cost == 0) break;  // nothing to improve on
+    if (chosen->unresolved == 0 && chosen->cost == 0) break;
   } while (std::next_permutation(order.begin(), order.end()));
   plan.pins = chosen->pins;
   return chosen->extra;
