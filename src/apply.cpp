@@ -13,6 +13,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <iterator>
 #include <limits>
 
 #include "src/hardware.hpp"
@@ -262,6 +263,165 @@ void spring_checks(const ApplyResult& r, const Design& d, std::vector<Check>& ou
   }
 }
 
+/// The lever plate's outline: the handle and the lever's holes, grown by half its width.
+std::vector<Vec2> lever_centres(const Design& d, const Solution& s) {
+  std::vector<Vec2> points{d.lever.handle};
+  for (const PinPlan& p : s.hardware.pins) {
+    if (p.on_lever) points.push_back(p.at);
+  }
+  return points;
+}
+
+/// First distance s ≥ 0 along the unit `dir` from `p` at which the plate's signed distance
+/// crosses zero going from `outside` (true: from outside in; false: from inside out); −1 when the
+/// line never does within `reach`. The signed distance is convex along a line, so sampling finer
+/// than the plate's half width and bisecting finds the crossing.
+double along_to_edge(Vec2 p, Vec2 dir, const std::vector<Vec2>& centres, double radius, double reach,
+                     bool outside) {
+  auto f = [&](double t) {
+    const double v = distance_to_plate(p + t * dir, centres, radius);
+    return outside ? v : -v;
+  };
+  const double step = radius / 4;
+  double lo = 0;
+  for (double t = step; t <= reach + step; t += step) {
+    if (f(t) <= 0) {
+      double hi = t;
+      for (int i = 0; i < 60; ++i) {
+        const double mid = (lo + hi) / 2;
+        (f(mid) <= 0 ? hi : lo) = mid;
+      }
+      return hi;
+    }
+    lo = t;
+  }
+  return -1;
+}
+
+std::string point_text(Vec2 p) {
+  return "[\"" + fmt("%.1f", p.x * 1000) + " mm\", \"" + fmt("%.1f", p.y * 1000) + " mm\"]";
+}
+
+SeatPlan seat_for(const SpringResult& sp, Vec2 face, Vec2 normal, double shortest) {
+  using namespace mount_rules;
+  SeatPlan st;
+  st.face = face;
+  st.normal = normal;
+  const double od = sp.outer_diameter, id = sp.mean_diameter - sp.wire_diameter;
+  st.diameter = od + 2 * std::max(seat_rim_min, seat_rim_fraction * od);
+  st.thickness = seat_series[std::size(seat_series) - 1];
+  for (double t : seat_series) {
+    if (t >= seat_rim_fraction * od - 1e-12) {
+      st.thickness = t;
+      break;
+    }
+  }
+  st.spigot_diameter = id - std::max(0.001, 0.05 * id);
+  st.spigot_height = std::min(2 * sp.wire_diameter, 0.2 * shortest);
+  return st;
+}
+
+/// Seats for the spring, or the weight's hanger and block, where the design file puts them.
+ElementMount plan_mount(const Design& d, const Solution& s, const ApplyResult& r) {
+  ElementMount m;
+  const Apply& ap = d.apply;
+  if (!r.present || !s.hardware.present) return m;
+  const std::vector<Vec2> centres = lever_centres(d, s);
+  const double half = d.lever.width / 2;
+  double reach = 0;
+  for (Vec2 c : centres) reach = std::max(reach, norm(c - ap.at) + half);
+  if (ap.by == ApplyBy::spring) {
+    if (!r.spring.found) return m;
+    m.present = true;
+    const Vec2 u = (1.0 / norm(ap.seat - ap.at)) * (ap.seat - ap.at);  // lever → frame
+    const SpringResult& sp = r.spring;
+    const double shortest = sp.released.length;
+    m.frame_seat = seat_for(sp, ap.seat, u, shortest);
+    m.lever_seat = seat_for(sp, ap.at, {0.0 - u.x, 0.0 - u.y}, shortest);
+    if (distance_to_plate(ap.at, centres, half) <= 0) {
+      const double out = along_to_edge(ap.at, u, centres, half, reach, false);
+      m.refusal = "apply.at = " + point_text(ap.at) + " lies inside the lever plate, where the "
+                  "spring's end cannot seat: put it on the lever's edge along the spring's axis, "
+                  "at " + point_text(ap.at + out * u) + " or further out (the force line and its "
+                  "arm stay the same; the spring is then designed for the shorter length)";
+      return m;
+    }
+    const double edge = along_to_edge(ap.at, -1.0 * u, centres, half, reach, true);
+    if (edge < 0) {
+      m.refusal = "the spring's axis apply.seat → apply.at does not meet the lever plate behind "
+                  "apply.at = " + point_text(ap.at) + ": nothing would carry its seat; put "
+                  "apply.at over the lever (lever.width " + mm(d.lever.width) + " about the "
+                  "handle and the lever's pins)";
+      return m;
+    }
+    if (edge < mount_rules::seat_bridge) {
+      m.refusal = "apply.at = " + point_text(ap.at) + " is " + mm(edge) + " from the lever's "
+                  "edge along the spring's axis; the seat plate between them needs at least " +
+                  mm(mount_rules::seat_bridge) + ": move apply.at (and apply.seat with it) at "
+                  "least " + mm(mount_rules::seat_bridge - edge) + " further from the lever "
+                  "along the axis";
+      return m;
+    }
+    m.lever_seat.thickness = std::max(m.lever_seat.thickness, edge);
+    return m;
+  }
+  // By weight: the rod hangs from the lever's lower edge on the vertical through apply.at.
+  m.present = true;
+  const Vec2 down{0, -1};
+  const double top = distance_to_plate(ap.at, centres, half) <= 0
+                         ? along_to_edge(ap.at, down, centres, half, reach, false)
+                         : -1;
+  Vec2 hang;
+  if (top >= 0) {
+    hang = ap.at + top * down;
+  } else {
+    // apply.at outside the plate: the lever above or below it on the same vertical.
+    const double below = along_to_edge(ap.at, down, centres, half, reach, true);
+    const double above = along_to_edge(ap.at, {0, 1}, centres, half, reach, true);
+    if (below < 0 && above < 0) {
+      m.refusal = "apply.at = " + point_text(ap.at) + ": no part of the lever plate lies on the "
+                  "vertical through it, so the weight's hanger has nothing to hang from; put "
+                  "apply.at over the lever";
+      return m;
+    }
+    const Vec2 inside = below >= 0 ? ap.at + (below + 1e-6) * down : ap.at + (above + 1e-6) * Vec2{0, 1};
+    hang = inside + along_to_edge(inside, down, centres, half, reach, false) * down;
+  }
+  using namespace mount_rules;
+  WeightMount& w = m.weight;
+  w.hang = hang;
+  const double rho = 7850.0;  // carbon steel [kg/m³]: common practice, no source
+  w.rod_diameter = std::max(rod_min, std::ceil(std::sqrt(4 * ap.mass * kGravity / (kPi * rod_stress)) * 1000 - 1e-9) / 1000);
+  const double rod_area = kPi * w.rod_diameter * w.rod_diameter / 4;
+  // Block height = diameter D, bored for the rod; drop = max(20 mm, D/4); block + rod = mass.
+  // Fixed point on D (the rod's share is a few per cent).
+  double D = std::cbrt(4 * ap.mass / (rho * kPi));
+  for (int i = 0; i < 50; ++i) {
+    const double drop = std::max(drop_min, D / 4);
+    const double rod_mass = rho * rod_area * (drop + D);
+    const double block_volume = std::max(1e-9, (ap.mass - rod_mass) / rho);
+    // π D³/4 − rod_area·D = block_volume
+    double x = D;
+    for (int k = 0; k < 30; ++k) {
+      const double g = kPi * x * x * x / 4 - rod_area * x - block_volume;
+      const double dg = 3 * kPi * x * x / 4 - rod_area;
+      x -= g / dg;
+    }
+    D = x;
+  }
+  w.block_diameter = w.block_height = D;
+  w.drop = std::max(drop_min, D / 4);
+  w.rod_length = w.drop + D;
+  w.rod_mass = rho * rod_area * w.rod_length;
+  w.block_mass = ap.mass - w.rod_mass;
+  if (!(w.block_mass > 0) || !(D > 2 * w.rod_diameter)) {
+    m.refusal = "apply.mass = " + fmt("%.3g kg", ap.mass) + " is too light for a block on a Ø" +
+                mm(w.rod_diameter) + " hanger; give at least " +
+                fmt("%.2g kg", 3 * rho * rod_area * 0.1) + " or apply the brake by spring";
+  }
+  return m;
+}
+
 }  // namespace
 
 LeverMass lever_mass(const Design& d, const Solution& s) {
@@ -269,13 +429,8 @@ LeverMass lever_mass(const Design& d, const Solution& s) {
   if (!s.hardware.present) return out;
   const DrumMaterial* steel = find_drum_material("steel");
   const double rho = steel != nullptr ? steel->density : 7850.0;
-  std::vector<Vec2> points{d.lever.handle};
-  std::vector<Vec2> holes;
-  for (const PinPlan& p : s.hardware.pins) {
-    if (!p.on_lever) continue;
-    points.push_back(p.at);
-    holes.push_back(p.at);
-  }
+  const std::vector<Vec2> points = lever_centres(d, s);
+  const std::vector<Vec2> holes(points.begin() + 1, points.end());
   AreaMoment plate = grown_hull(points, d.lever.width / 2);
   const double pin_r = d.band.pin_diameter / 2;
   for (Vec2 h : holes) {
@@ -471,6 +626,7 @@ ApplyResult solve_apply(const Design& d, const Solution& s) {
         pressure_case + ", lining new, the drum slipping"));
   }
   hoist_checks(d, r);
+  r.mount = plan_mount(d, s, r);
   return r;
 }
 

@@ -37,6 +37,41 @@ struct ActuatorNeed {
   double force = 0;    ///< holds the lever released against the element and the lever [N]
 };
 
+/// A spring seat that bandforge adds (src/apply.cpp, rules "common practice, no source", README
+/// "Generated hardware"): a steel disc square to the spring's axis, with a spigot on its face that
+/// locates the end coil. Applied position.
+struct SeatPlan {
+  Vec2 face;               ///< centre of the face the spring's end bears on [m]
+  Vec2 normal;             ///< unit, from that face into the plate (away from the spring)
+  double diameter = 0;     ///< [m]
+  double thickness = 0;    ///< along `normal` [m]; the lever's seat reaches the lever's edge and
+                           ///< is notched over it (welded there)
+  double spigot_diameter = 0;  ///< inside the coils, clear of them [m]
+  double spigot_height = 0;    ///< from the face toward the spring [m]
+};
+
+/// A weight on a hanger that bandforge adds: a steel rod down from the lever's lower edge under
+/// apply.at, through a steel cylinder; block and rod together are apply.mass. Applied position.
+struct WeightMount {
+  Vec2 hang;                   ///< top of the hanger on the lever's lower edge [m]
+  double rod_diameter = 0;     ///< [m]
+  double rod_length = 0;       ///< from `hang` to the block's bottom face [m]
+  double drop = 0;             ///< from `hang` to the block's top face [m]
+  double block_diameter = 0;   ///< vertical axis under `hang` [m]
+  double block_height = 0;     ///< [m]
+  double block_mass = 0;       ///< block alone (bored for the rod) [kg]
+  double rod_mass = 0;         ///< [kg]
+};
+
+/// What carries the element: seats for a spring, hanger and block for a weight. `refusal` says
+/// why it cannot be made where the design file puts the element (build exit 3), with the key.
+struct ElementMount {
+  bool present = false;
+  std::string refusal;
+  SeatPlan lever_seat, frame_seat;  ///< by spring
+  WeightMount weight;               ///< by weight
+};
+
 /// Everything about how the brake is applied; `present` only for a weight or a spring.
 struct ApplyResult {
   ApplyBy by = ApplyBy::hand;
@@ -57,6 +92,7 @@ struct ApplyResult {
   SpringResult spring;             ///< by spring: the specified spring (found) or why none
   Vec2 seat;                       ///< by spring: its frame end [m]
   ActuatorNeed actuator;
+  ElementMount mount;              ///< seats, or hanger and block (geometry/ builds them)
   std::string refusal;             ///< by spring, none found: the binding requirement and the fix
   std::vector<Check> checks;       ///< apply and hoist checks (also in Solution::checks)
   std::vector<std::string> warnings;
@@ -70,6 +106,21 @@ struct LeverMass {
   Vec2 centroid;
 };
 LeverMass lever_mass(const Design& design, const Solution& solution);
+
+/// Seat plate rules (common practice, no source): diameter OD + 2·max(5 mm, 0.1·OD), thickness
+/// the least of the series ≥ 0.1·OD, spigot ID − max(1 mm, 0.05·ID) across and min(2d, 0.2·L)
+/// high; a seat on the lever needs at least `seat_bridge` of plate between the spring's end and
+/// the lever's edge. Weight: rod ≥ 12 mm at ≤ 60 MPa tension, block height = diameter, block top
+/// max(20 mm, D_w/4) below the lever.
+namespace mount_rules {
+inline constexpr double seat_rim_min = 0.005;      ///< [m]
+inline constexpr double seat_rim_fraction = 0.1;   ///< of the outer diameter
+inline constexpr double seat_series[] = {0.006, 0.008, 0.010, 0.012, 0.016, 0.020};  ///< [m]
+inline constexpr double seat_bridge = 0.003;       ///< [m]
+inline constexpr double rod_min = 0.012;           ///< [m]
+inline constexpr double rod_stress = 60e6;         ///< [Pa]
+inline constexpr double drop_min = 0.020;          ///< [m]
+}  // namespace mount_rules
 
 /// The applying element's statics, spring and actuator, and the apply and hoist checks, for a
 /// solved design (layout, results and hardware plan filled in).

@@ -205,6 +205,28 @@ json apply_json(const ApplyResult& a) {
   const ActuatorNeed& act = a.actuator;
   j["actuator"] = {{"stroke_m", act.stroke}, {"force_N", act.force},   {"at_m", xy(act.at)},
                    {"arm_m", act.arm},       {"travel_m", act.travel}, {"margin_m", act.margin}};
+  // What bandforge adds to carry the element (src/apply.hpp ElementMount).
+  const ElementMount& mt = a.mount;
+  if (mt.present) {
+    json m;
+    auto seat = [&](const SeatPlan& st) {
+      return json{{"face_m", xy(st.face)},          {"normal", xy(st.normal)},
+                  {"diameter_m", st.diameter},      {"thickness_m", st.thickness},
+                  {"spigot_diameter_m", st.spigot_diameter}, {"spigot_height_m", st.spigot_height}};
+    };
+    if (a.by == ApplyBy::spring) {
+      m["lever_seat"] = seat(mt.lever_seat);
+      m["frame_seat"] = seat(mt.frame_seat);
+    } else {
+      const WeightMount& w = mt.weight;
+      m["weight"] = {{"hang_m", xy(w.hang)},           {"rod_diameter_m", w.rod_diameter},
+                     {"rod_length_m", w.rod_length},   {"drop_m", w.drop},
+                     {"block_diameter_m", w.block_diameter}, {"block_height_m", w.block_height},
+                     {"block_mass_kg", w.block_mass},  {"rod_mass_kg", w.rod_mass}};
+    }
+    m["refusal"] = mt.refusal.empty() ? json(nullptr) : json(mt.refusal);
+    j["mount"] = m;
+  }
   return j;
 }
 

@@ -400,6 +400,84 @@ TEST(ApplyStatics, SeatOnTheWrongSideIsAnError) {
 
 // REFERENCE §7: 29 CFR 1910.179(f)(2), holding brakes "applied automatically when power is
 // removed"; (f)(2)(i), at least 125 % of the full-load hoisting torque at the brake.
+// ---- What carries the element (ApplyResult::mount; rules in src/apply.hpp mount_rules,
+// common practice, no source). The lever of kBase is 40 mm wide about y = −250 mm, so its upper
+// edge at x = 250 mm is y = −230 mm.
+
+std::string spring_at(const std::string& at) {
+  return "\n[apply]\nby = \"spring\"\nat = " + at + "\nseat = [\"250 mm\", \"-90 mm\"]\nwear_allowance = \"2 mm\"\n";
+}
+
+TEST(ApplyMount, SpringSeatsFollowTheRulesAndTheLeverSeatReachesTheEdge) {
+  const Design d = read(kBase + spring_at(R"(["250 mm", "-226 mm"])"));
+  const ApplyResult& a = solve(d).apply;
+  ASSERT_TRUE(a.spring.found) << a.refusal;
+  const ElementMount& m = a.mount;
+  ASSERT_TRUE(m.present);
+  EXPECT_EQ(m.refusal, "");
+  const double od = a.spring.outer_diameter, id = a.spring.mean_diameter - a.spring.wire_diameter;
+  // Rules written out again: Ø = OD + 2·max(5 mm, 0.1·OD); t = least of 6/8/10/12/16/20 mm ≥ 0.1·OD.
+  const double dia = od + 2 * std::max(0.005, 0.1 * od);
+  double t = 0.020;
+  for (double c : {0.006, 0.008, 0.010, 0.012, 0.016, 0.020}) {
+    if (c >= 0.1 * od) { t = c; break; }
+  }
+  for (const SeatPlan* st : {&m.lever_seat, &m.frame_seat}) {
+    EXPECT_NEAR(st->diameter, dia, 1e-12);
+    EXPECT_NEAR(st->spigot_diameter, id - std::max(0.001, 0.05 * id), 1e-12);
+    EXPECT_NEAR(st->spigot_height, std::min(2 * a.spring.wire_diameter, 0.2 * a.spring.released.length), 1e-12);
+    EXPECT_LT(st->spigot_diameter, id);  // clear of the coils
+  }
+  EXPECT_NEAR(m.frame_seat.thickness, t, 1e-12);
+  // The lever's seat reaches the edge 4 mm behind apply.at, or is the series plate when thicker.
+  EXPECT_NEAR(m.lever_seat.thickness, std::max(t, 0.004), 1e-9);
+  // Faces at the two ends of the spring, normals pointing away from it (axis vertical here).
+  EXPECT_NEAR(m.lever_seat.face.y, -0.226, 1e-12);
+  EXPECT_NEAR(m.frame_seat.face.y, -0.090, 1e-12);
+  EXPECT_NEAR(m.lever_seat.normal.y, -1, 1e-12);
+  EXPECT_NEAR(m.frame_seat.normal.y, 1, 1e-12);
+}
+
+TEST(ApplyMount, SpringEndInsideOrAgainstTheLeverIsRefusedWithWhereToPutIt) {
+  // On the lever's centre line: inside the plate; the edge along the axis is at y = −230 mm.
+  const ApplyResult inside = solve(read(kBase + spring_at(R"(["250 mm", "-250 mm"])"))).apply;
+  ASSERT_TRUE(inside.spring.found);
+  EXPECT_NE(inside.mount.refusal.find("apply.at"), std::string::npos) << inside.mount.refusal;
+  EXPECT_NE(inside.mount.refusal.find("inside the lever plate"), std::string::npos);
+  EXPECT_NE(inside.mount.refusal.find("[\"250.0 mm\", \"-230.0 mm\"]"), std::string::npos) << inside.mount.refusal;
+  // 1 mm above the edge: no room for the 3 mm of seat plate; it must move 2 mm.
+  const ApplyResult close = solve(read(kBase + spring_at(R"(["250 mm", "-229 mm"])"))).apply;
+  ASSERT_TRUE(close.spring.found);
+  EXPECT_NE(close.mount.refusal.find("is 1.0 mm from the lever's edge"), std::string::npos) << close.mount.refusal;
+  EXPECT_NE(close.mount.refusal.find("at least 2.0 mm further"), std::string::npos) << close.mount.refusal;
+}
+
+TEST(ApplyMount, WeightBlockAndHangerTogetherWeighTheMass) {
+  const ApplyResult a = solve(read(kBase + kWeight)).apply;
+  const WeightMount& w = a.mount.weight;
+  ASSERT_TRUE(a.mount.present);
+  EXPECT_EQ(a.mount.refusal, "");
+  // apply.at is the handle point, inside the plate: the rod hangs from the lower edge below it.
+  EXPECT_NEAR(w.hang.x, 0.600, 1e-12);
+  EXPECT_NEAR(w.hang.y, -0.270, 1e-9);
+  // 30 kg pulls 294 N: Ø2.5 mm at 60 MPa, so the 12 mm least rod.
+  EXPECT_NEAR(w.rod_diameter, 0.012, 1e-12);
+  const double rod_area = kPi * 0.012 * 0.012 / 4, D = w.block_diameter;
+  EXPECT_NEAR(w.block_height, D, 1e-12);
+  EXPECT_NEAR(w.drop, std::max(0.020, D / 4), 1e-12);
+  EXPECT_NEAR(w.rod_length, w.drop + D, 1e-12);
+  // Block (bored for the rod) and rod are the mass, steel 7850 kg/m³.
+  const double block = kSteel * (kPi * D * D * D / 4 - rod_area * D);
+  const double rod = kSteel * rod_area * w.rod_length;
+  EXPECT_NEAR(block + rod, 30.0, 1e-9);
+  EXPECT_NEAR(w.block_mass, block, 1e-9);
+  EXPECT_NEAR(w.rod_mass, rod, 1e-9);
+}
+
+TEST(ApplyMount, HandAppliedHasNone) {
+  EXPECT_FALSE(solve(read(kBase)).apply.mount.present);
+}
+
 TEST(HoistRules, HandAppliedHoistBrakeFailsSelfSetting) {
   const Solution hand = solve(read(kBase + kHoist));
   const Check* c = find_check(hand, "self_setting");
