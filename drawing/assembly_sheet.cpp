@@ -435,6 +435,7 @@ AssemblyDrawn draw_assembly(Canvas& c, const AssemblyPlan& plan, const Design& d
     draw_view(c, occ, geom::project(*released, geom::front_view(), o), p.front, ViewStyle::phantom);
   }
   draw_centre_lines(p);
+  draw_spring_coils(p);
   draw_band_detail(p);
   dimension_front_view(p);
   dimension_side_view(p);

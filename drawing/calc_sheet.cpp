@@ -955,6 +955,41 @@ Table actuator_table(const Solution& s, UnitSystem u) {
   return t;
 }
 
+// What bandforge adds to carry the element (src/apply.hpp ElementMount, mount_rules).
+Table mount_table(const Solution& s, UnitSystem u) {
+  const ApplyResult& a = s.apply;
+  const ElementMount& m = a.mount;
+  Table t = value_table();
+  const std::string rule = "common practice, no source";
+  if (a.by == ApplyBy::spring) {
+    const double od = a.spring.outer_diameter;
+    for (const SeatPlan* st : {&m.lever_seat, &m.frame_seat}) {
+      const bool lever = st == &m.lever_seat;
+      const std::string who = lever ? "Lever seat" : "Frame seat";
+      add_row(t, who + " face", point(st->face, u), lever ? "apply.at" : "apply.seat", "design file [apply]");
+      add_row(t, who + " Ø", len(st->diameter, u),
+              "OD + 2·max(5 mm, 0.1·OD), OD = " + len(od, u), rule);
+      add_row(t, who + " thickness", len(st->thickness, u),
+              lever ? "least of 6/8/10/12/16/20 mm ≥ 0.1·OD, or to the lever's edge along the axis"
+                    : "least of 6/8/10/12/16/20 mm ≥ 0.1·OD",
+              rule);
+      add_row(t, who + " spigot", "Ø" + len(st->spigot_diameter, u) + " × " + len(st->spigot_height, u),
+              "ID − max(1 mm, 0.05·ID); min(2d, 0.2·L_released)", rule);
+    }
+  } else {
+    const WeightMount& w = m.weight;
+    add_row(t, "Hanger top", point(w.hang, u), "lever's lower edge on the vertical through apply.at", "geometry of the lever");
+    add_row(t, "Hanger rod", "Ø" + len(w.rod_diameter, u) + " × " + len(w.rod_length, u),
+            "≥ 12 mm, m·g/(πd²/4) ≤ 60 MPa; drop + block height", rule);
+    add_row(t, "Weight block", "Ø" + len(w.block_diameter, u) + " × " + len(w.block_height, u),
+            "steel cylinder, height = Ø, bored for the rod; top max(20 mm, Ø/4) below the lever", rule);
+    add_row(t, "Block + rod mass", qty(w.block_mass, Quantity::mass, u) + " + " + qty(w.rod_mass, Quantity::mass, u),
+            "= apply.mass, steel 7850 kg/m³", rule);
+  }
+  if (!m.refusal.empty()) add_row(t, "Cannot be built", m.refusal, "", "");
+  return t;
+}
+
 // The hoist rules of 29 CFR 1910.179(f)(2) as the checks state them; empty without hoist duty.
 Table hoist_rules_table(const Design& d, const Solution& s, UnitSystem u) {
   Table t;
@@ -1034,6 +1069,11 @@ void apply_blocks(std::vector<Block>& b, int& section, const Design& d, const So
   if (!spring || a.spring.found) {
     b.push_back(caption("The release actuator's requirement (the buyer chooses the product):"));
     b.push_back(table_block(actuator_table(s, u)));
+  }
+  if (a.mount.present) {
+    b.push_back(caption(spring ? "What carries the spring (bandforge adds it; built in the STEP):"
+                               : "What carries the weight (bandforge adds it; built in the STEP):"));
+    b.push_back(table_block(mount_table(s, u)));
   }
   if (!hoist.rows.empty()) {
     b.push_back(caption("Hoist rules (also in the checks):"));

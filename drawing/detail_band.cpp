@@ -296,11 +296,9 @@ void draw_band_sheet(Canvas& c, const SheetSize& sheet, const Design& d, const S
   const JointPlan* joints[2] = {&sol.hardware.joint_a, &sol.hardware.joint_b};
   const bool riveted[2] = {joints[0]->kind != JointKind::welded_block, joints[1]->kind != JointKind::welded_block};
   Lap laps[2];
-  int joint_rivets = 0;
   for (int i = 0; i < 2; ++i) {
     if (!riveted[i]) continue;
     laps[i] = lap_from_blank(*blank, i == 0, riveted[0] ? 2 : 0);
-    joint_rivets += static_cast<int>(laps[i].rows.size() * laps[i].columns.size());
   }
   const int lining_rivets = lining_blank ? static_cast<int>(lining_blank->holes.size()) : 0;
   const double lining_hole = lining_rivets > 0 ? 2 * lining_blank->holes.front().radius : 0;
@@ -328,9 +326,11 @@ void draw_band_sheet(Canvas& c, const SheetSize& sheet, const Design& d, const S
       const Lap& l = laps[i];
       notes.push_back("End " + e + ": " + to_string(j.kind) + ", eye round the Ø" +
                       dim_length(d.band.pin_diameter, u) + " pin, tail laid back outside the run; " +
-                      std::to_string(l.rows.size() * l.columns.size()) + " solid rivets Ø" +
-                      dim_length(l.rivet / 1000, u) + " (ISO 1051 series), grip " + dim_length(2 * t / 1000, u) +
-                      " (tail and run).");
+                      std::to_string(j.rows * j.columns) + " × " + j.rivets.designation() + " (hole Ø" +
+                      dim_length(l.rivet / 1000, u) + "), grip " + dim_length(2 * t / 1000, u) +
+                      " (tail and run), round head outside" +
+                      (j.rivets.closing == standard::RivetClosing::flush ? ", closed flush on the drum side."
+                                                                          : ", closed round on the drum side."));
     } else {
       const std::string blk = "END-BLOCK-" + e;
       notes.push_back("End " + e + ": welded end block " + blk + " (bore " + std::string(fits::kPinHole) +
@@ -350,9 +350,20 @@ void draw_band_sheet(Canvas& c, const SheetSize& sheet, const Design& d, const S
   row(*band);
   if (lining) row(*lining);
   for (const auto* blk : blocks) row(*blk);
-  if (joint_rivets > 0) {
-    const double dr = riveted[0] ? laps[0].rivet : laps[1].rivet;
-    table.rows.push_back({"Rivet Ø" + dim_length(dr / 1000, u) + " (joints)", "steel, bought", std::to_string(joint_rivets), "—"});
+  // Joint rivets as the plan buys them: one row per designation (both ends alike: one row).
+  for (int i = 0; i < 2; ++i) {
+    if (!riveted[i]) continue;
+    const JointPlan& j = *joints[i];
+    if (i == 1 && riveted[0] && joints[0]->rivets.designation() == j.rivets.designation()) continue;
+    int n = j.rows * j.columns;
+    if (i == 0 && riveted[1] && joints[1]->rivets.designation() == j.rivets.designation()) {
+      n += joints[1]->rows * joints[1]->columns;
+    }
+    // "Rivet DIN 660 - 6 × 16" to fit the column; the notes give the whole designation.
+    std::string name = j.rivets.designation();
+    if (name.rfind("Round head rivet ", 0) == 0) name = "Rivet " + name.substr(17);
+    name = name.substr(0, name.find(" - St"));
+    table.rows.push_back({name, "steel, bought", std::to_string(n), "—"});
   }
   if (lining_rivets > 0) {
     table.rows.push_back({"Rivet Ø" + dim_length(lining_hole / 1000, u) + " (lining)", "brass or copper, bought",

@@ -59,6 +59,9 @@ struct Page1 {
 };
 
 void draw_centre_lines(Page1& p);
+/// A spring-applied brake: the spring's axis and its coils as straight lines inside the outline
+/// its display solid projects (a simplified view, ISO 2162-1, from memory).
+void draw_spring_coils(Page1& p);
 void draw_band_detail(Page1& p);
 void dimension_front_view(Page1& p);
 void dimension_side_view(Page1& p);

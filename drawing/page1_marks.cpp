@@ -95,6 +95,35 @@ void draw_centre_lines(Page1& p) {
   }
 }
 
+void draw_spring_coils(Page1& p) {
+  const ApplyResult& a = p.s.apply;
+  if (a.by != ApplyBy::spring || !a.mount.present || !a.mount.refusal.empty() || !a.spring.found) return;
+  const SpringResult& sp = a.spring;
+  const Pt from = p.front(Pt{a.mount.lever_seat.face.x * kMmPerM, a.mount.lever_seat.face.y * kMmPerM});
+  const Pt to = p.front(Pt{a.mount.frame_seat.face.x * kMmPerM, a.mount.frame_seat.face.y * kMmPerM});
+  const double len = std::hypot(to.x - from.x, to.y - from.y);
+  if (!(len > 0)) return;
+  const Pt u{(to.x - from.x) / len, (to.y - from.y) / len}, n{-u.y, u.x};
+  const double ro = sp.outer_diameter * kMmPerM / 2 * p.k, ri = ro - sp.wire_diameter * kMmPerM * p.k;
+  auto at = [&](double along, double across) {
+    return Pt{from.x + along * u.x + across * n.x, from.y + along * u.y + across * n.y};
+  };
+  // The axis, a little past both ends (ISO 128 type 04.1).
+  p.c.pen(Pen::centre);
+  p.c.line(at(-3, 0), at(len + 3, 0));
+  p.occ.add_segment(at(-3, 0), at(len + 3, 0));
+  // One line per coil on the near side, from one flank to the other over half a pitch; the
+  // inner flank lines of the wire's section where the coils would show it.
+  p.c.pen(Pen::narrow);
+  const int coils = static_cast<int>(std::ceil(sp.total_coils));
+  const double pitch = len / sp.total_coils;
+  for (int i = 0; i < coils; ++i) {
+    const double s0 = std::min(len, i * pitch), s1 = std::min(len, (i + 0.5) * pitch);
+    p.c.line(at(s0, -ri), at(s1, ri));
+    p.occ.add_segment(at(s0, -ri), at(s1, ri));
+  }
+}
+
 void draw_rotation_and_ends(Page1& p) {
   // The rotation the brake is designed for: an arrow on the drum face between hub and rim.
   const DrumProportions dp = drum_proportions(p.d.drum);

@@ -18,6 +18,11 @@ const char* to_string(PartKind kind) {
     case PartKind::washer: return "washer";
     case PartKind::split_pin: return "split-pin";
     case PartKind::sleeve: return "sleeve";
+    case PartKind::rivet: return "rivet";
+    case PartKind::spring: return "spring";
+    case PartKind::seat: return "seat";
+    case PartKind::weight: return "weight";
+    case PartKind::hanger: return "hanger";
   }
   return "?";
 }

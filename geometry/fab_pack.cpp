@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "geometry/flat_internal.hpp"
+#include "src/apply.hpp"
 #include "src/errors.hpp"
 #include "src/hardware.hpp"
 #include "src/staging.hpp"
@@ -194,9 +195,9 @@ FabPack make_fab_pack(const Design& design, const Solution& solution, const Brak
                                                "; bore for the pin, slot for the band end"));
   }
 
-  // Bought parts (clevis pins, washers, split pins): their standard designations, masses the
-  // solids'.
-  for (const char* kind : {"pin", "washer", "split-pin"}) {
+  // Bought parts (clevis pins, washers, split pins, joint rivets): their standard designations,
+  // masses the solids' (a rivet's as set, heads formed).
+  for (const char* kind : {"pin", "washer", "split-pin", "rivet"}) {
     for (std::size_t i : parts_of_kind(model, kind)) {
       pack.rows.push_back({infos[i].name, "", infos[i].material, "bought", 0, 0, 0,
                            static_cast<int>(infos[i].instance_names.size()), infos[i].mass,
@@ -221,6 +222,30 @@ FabPack make_fab_pack(const Design& design, const Solution& solution, const Brak
                            s.diameter, static_cast<int>(infos[i].instance_names.size()), mass,
                            "becomes " + joined(infos[i].instance_names)});
     }
+  }
+  // The applying element (src/apply.hpp): the spring is bought to its specification; seats,
+  // weight block and hanger are turned or sawn from round bar, sizes from the plan.
+  const ElementMount& mount = solution.apply.mount;
+  for (std::size_t i : parts_of_kind(model, "spring")) {
+    pack.rows.push_back({infos[i].name, "", infos[i].material, "bought", 0, 0, 0,
+                         static_cast<int>(infos[i].instance_names.size()), infos[i].mass,
+                         infos[i].designation + "; to the specification on the calculation sheet"});
+  }
+  auto bar_row = [&](std::size_t i, double diameter, double length, const std::string& how) {
+    pack.rows.push_back({infos[i].name, "", infos[i].material, "round bar", diameter * 1000,
+                         length * 1000, diameter * 1000, static_cast<int>(infos[i].instance_names.size()),
+                         infos[i].mass, infos[i].designation + "; " + how});
+  };
+  for (std::size_t i : parts_of_kind(model, "seat")) {
+    const SeatPlan& st = infos[i].name == "SEAT-LEVER" ? mount.lever_seat : mount.frame_seat;
+    bar_row(i, st.diameter, st.thickness + st.spigot_height, "turned: plate and spigot in one");
+  }
+  for (std::size_t i : parts_of_kind(model, "weight")) {
+    bar_row(i, mount.weight.block_diameter, mount.weight.block_height, "sawn and bored through");
+  }
+  for (std::size_t i : parts_of_kind(model, "hanger")) {
+    bar_row(i, mount.weight.rod_diameter, mount.weight.rod_length + 0.005,
+            "sawn 5 mm over length, the top fitted to the lever's edge");
   }
   return pack;
 }

@@ -28,7 +28,11 @@
 namespace bandforge::geom {
 
 /// What a part is, so that views and reports can style it (e.g. draw pins with centre lines).
-enum class PartKind { drum, lining, band, lever, grip, pin, anchor, block, washer, split_pin, sleeve };
+enum class PartKind {
+  drum, lining, band, lever, grip, pin, anchor, block, washer, split_pin, sleeve,
+  rivet,                  ///< band-joint rivet (bought, standard designation)
+  spring, seat, weight, hanger,  ///< applying element (src/apply.hpp) and what carries it
+};
 
 const char* to_string(PartKind kind);
 

@@ -137,8 +137,16 @@ TopoDS_Shape make_band(const BandPath& p) {
   const double eye_outer = p.eye_inner + p.thickness;
   // Where the strip's offset lines (±h from the run) meet the eye's outer circle.
   const double x0 = std::sqrt(eye_outer * eye_outer - h * h);
+  // A riveted lap's tail (BandEndPath::lap) lies on the run's outside face, the face at +h
+  // along `radial`, away from the drum centre: the band blank's "tail laid back on the run
+  // outside" (geometry/flat_band.cpp), so that the lap is 2t thick there and the drum side of
+  // the run stays flat. The eye is the ring round the pin (not the teardrop a real eye makes);
+  // the tail meets the ring's outer circle at offset 3h and runs to ρ + lap from the pin, where
+  // the blank's free end lands. One profile, no boolean: run, eye and tail are one face.
   struct EndPoints {
     Vec2 e_out, e_in, t_out, t_in, far;
+    bool tail = false;
+    Vec2 tail_eye, tail_top, tail_foot;  // ring at 3h, tail end at 3h and at h
   };
   auto end_points = [&](const BandEndPath& e) {
     const Vec2 radial{std::cos(e.tangent_angle), std::sin(e.tangent_angle)};
@@ -153,6 +161,14 @@ TopoDS_Shape make_band(const BandPath& p) {
     if (!e.eye) {  // a straight end across the strip
       q.e_out = add(add(e.pin, u, e.cut), radial, h);
       q.e_in = add(add(e.pin, u, e.cut), radial, -h);
+    } else if (e.lap > 0) {
+      // The tail ends at the tangent point at most (the plan's lap ≤ run − ρ).
+      const double end = std::min(p.eye_inner + h + e.lap, len);
+      q.tail = true;
+      q.tail_eye = add(add(e.pin, u, std::sqrt(eye_outer * eye_outer - 9 * h * h)), radial, 3 * h);
+      q.tail_top = add(add(e.pin, u, end), radial, 3 * h);
+      q.tail_foot = add(add(e.pin, u, end), radial, h);
+      if (len - end < 1e-6) q.tail_foot = q.t_out;
     }
     return q;
   };
@@ -160,18 +176,32 @@ TopoDS_Shape make_band(const BandPath& p) {
   const double mid = p.a.tangent_angle + p.sense * p.wrap / 2;
   const double z0 = 0;
   Profile w(z0);
-  w.line(a.e_out, a.t_out);
+  if (a.tail) {  // the eye's arc ended at the tail's outer face
+    w.line(a.tail_eye, a.tail_top);
+    w.line(a.tail_top, a.tail_foot);
+    if (a.tail_foot.x != a.t_out.x || a.tail_foot.y != a.t_out.y) w.line(a.tail_foot, a.t_out);
+  } else {
+    w.line(a.e_out, a.t_out);
+  }
   w.arc(a.t_out, at({0, 0}, p.r_band + h, mid), b.t_out);
-  w.line(b.t_out, b.e_out);
-  if (p.b.eye) {
+  if (b.tail) {
+    if (b.tail_foot.x != b.t_out.x || b.tail_foot.y != b.t_out.y) w.line(b.t_out, b.tail_foot);
+    w.line(b.tail_foot, b.tail_top);
+    w.line(b.tail_top, b.tail_eye);
+    w.arc(b.tail_eye, b.far, b.e_in);
+  } else if (p.b.eye) {
+    w.line(b.t_out, b.e_out);
     w.arc(b.e_out, b.far, b.e_in);
   } else {
+    w.line(b.t_out, b.e_out);
     w.line(b.e_out, b.e_in);
   }
   w.line(b.e_in, b.t_in);
   w.arc(b.t_in, at({0, 0}, p.r_band - h, mid), a.t_in);
   w.line(a.t_in, a.e_in);
-  if (p.a.eye) {
+  if (a.tail) {
+    w.arc(a.e_in, a.far, a.tail_eye);
+  } else if (p.a.eye) {
     w.arc(a.e_in, a.far, a.e_out);
   } else {
     w.line(a.e_in, a.e_out);
@@ -254,6 +284,37 @@ TopoDS_Shape make_clevis_pin(const ClevisPinDims& d, bool with_hole) {
   BRepAlgoAPI_Cut cut(body, hole);
   if (!cut.IsDone()) throw Standard_Failure("the split-pin hole could not be cut");
   return cut.Shape();
+}
+
+TopoDS_Shape make_rivet(const RivetDims& d) {
+  // Half-section in the xz plane (x = radius), revolved about z: each head a spherical cap of
+  // base radius a = d_k/2 and height k, sphere radius (a² + k²)/(2k).
+  const double r = d.d / 2, a = d.dk / 2;
+  auto cap_mid = [&](double k, double base_z, double sign) {
+    // The cap's point at radius a/2, between its rim (a, base_z) and apex (0, base_z + sign·k).
+    const double R = (a * a + k * k) / (2 * k), x = a / 2;
+    return gp_Pnt(x, 0, base_z + sign * (std::sqrt(R * R - x * x) - (R - k)));
+  };
+  auto seg = [](gp_Pnt p, gp_Pnt q) { return BRepBuilderAPI_MakeEdge(p, q).Edge(); };
+  auto arc = [](gp_Pnt p, gp_Pnt m, gp_Pnt q) {
+    return BRepBuilderAPI_MakeEdge(GC_MakeArcOfCircle(p, m, q).Value()).Edge();
+  };
+  BRepBuilderAPI_MakeWire mw;
+  const gp_Pnt apex(0, 0, -d.k), rim(a, 0, 0);
+  mw.Add(arc(apex, cap_mid(d.k, 0, -1), rim));
+  mw.Add(seg(rim, gp_Pnt(r, 0, 0)));
+  mw.Add(seg(gp_Pnt(r, 0, 0), gp_Pnt(r, 0, d.clamp)));
+  gp_Pnt end(0, 0, d.clamp);
+  if (d.closing > 0) {
+    end = gp_Pnt(0, 0, d.clamp + d.closing);
+    mw.Add(seg(gp_Pnt(r, 0, d.clamp), gp_Pnt(a, 0, d.clamp)));
+    mw.Add(arc(gp_Pnt(a, 0, d.clamp), cap_mid(d.closing, d.clamp, 1), end));
+  } else {
+    mw.Add(seg(gp_Pnt(r, 0, d.clamp), end));
+  }
+  mw.Add(seg(end, apex));
+  const TopoDS_Face face = BRepBuilderAPI_MakeFace(mw.Wire(), true).Face();
+  return BRepPrimAPI_MakeRevol(face, gp_Ax1(gp_Pnt(0, 0, 0), gp_Dir(0, 0, 1)), 2 * pi).Shape();
 }
 
 TopoDS_Shape make_ring(double inner_diameter, double outer_diameter, double z0, double height) {

@@ -37,6 +37,10 @@ struct BandEndPath {
   double tangent_angle = 0;
   bool eye = true;     ///< an eye round the pin; false: a straight end `cut` from the pin
   double cut = 0;      ///< distance from the pin centre to a straight end, along the run [mm]
+  /// Riveted lap (eye only): length of the tail laid back on the run's outside face [mm]; it ends
+  /// ρ + lap from the pin centre along the run (ρ = eye_inner + thickness/2, where the band
+  /// blank's eye closes); 0 = no tail.
+  double lap = 0;
 };
 
 /// Band profile [mm]: centreline line–arc–line from pin A to pin B, tangent to `r_band`, offset
@@ -53,6 +57,14 @@ struct BandPath {
 };
 
 TopoDS_Shape make_band(const BandPath& p);
+
+/// A solid round-head rivet as set [mm], part coordinates: axis z, the manufactured head's
+/// underside at z = 0 (a spherical cap d_k × k from −k to 0), the shank Ø d to `clamp`, the
+/// closing head a second cap d_k × `closing` from `clamp` (0: closed flush, shank only).
+struct RivetDims {
+  double d = 0, dk = 0, k = 0, clamp = 0, closing = 0;
+};
+TopoDS_Shape make_rivet(const RivetDims& d);
 
 /// A welded end block [mm], part coordinates: the pin bore at the origin, the band's run along
 /// −x, the band slot on the mid-plane y = 0 opening in the back face, z from 0 to `width`.

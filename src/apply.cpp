@@ -394,11 +394,32 @@ ElementMount plan_mount(const Design& d, const Solution& s, const ApplyResult& r
   w.rod_diameter = std::max(rod_min, std::ceil(std::sqrt(4 * ap.mass * kGravity / (kPi * rod_stress)) * 1000 - 1e-9) / 1000);
   const double rod_area = kPi * w.rod_diameter * w.rod_diameter / 4;
   // Block height = diameter D, bored for the rod; drop = max(20 mm, D/4); block + rod = mass.
+  // The block's top clears the lever over the block's whole width by the least plan clearance:
+  // a sloping lever comes lower beside the hanger than at it. The plate's lower boundary is a
+  // convex function of x, so its lowest point over [a, b] is at a, at b, or at the bottom of a
+  // centre's disc within [a, b].
+  double y_min = centres.front().y, y_max = centres.front().y;
+  for (Vec2 c : centres) {
+    y_min = std::min(y_min, c.y);
+    y_max = std::max(y_max, c.y);
+  }
+  auto lower_edge = [&](double x) {
+    const Vec2 from{x, y_min - half - 0.001};
+    const double up = along_to_edge(from, {0, 1}, centres, half, y_max - y_min + 2 * half + 0.002, true);
+    return up >= 0 ? from.y + up : hang.y;
+  };
+  auto drop_for = [&](double D) {
+    const double a = hang.x - D / 2, b = hang.x + D / 2;
+    double lowest = std::min({hang.y, lower_edge(a), lower_edge(b)});
+    for (Vec2 c : centres) {
+      if (c.x >= a && c.x <= b) lowest = std::min(lowest, c.y - half);
+    }
+    return std::max({drop_min, D / 4, hang.y - lowest + hardware_rules::clearance});
+  };
   // Fixed point on D (the rod's share is a few per cent).
   double D = std::cbrt(4 * ap.mass / (rho * kPi));
-  for (int i = 0; i < 50; ++i) {
-    const double drop = std::max(drop_min, D / 4);
-    const double rod_mass = rho * rod_area * (drop + D);
+  for (int i = 0; i < 12; ++i) {
+    const double rod_mass = rho * rod_area * (drop_for(D) + D);
     const double block_volume = std::max(1e-9, (ap.mass - rod_mass) / rho);
     // π D³/4 − rod_area·D = block_volume
     double x = D;
@@ -410,7 +431,7 @@ ElementMount plan_mount(const Design& d, const Solution& s, const ApplyResult& r
     D = x;
   }
   w.block_diameter = w.block_height = D;
-  w.drop = std::max(drop_min, D / 4);
+  w.drop = drop_for(D);
   w.rod_length = w.drop + D;
   w.rod_mass = rho * rod_area * w.rod_length;
   w.block_mass = ap.mass - w.rod_mass;

@@ -152,13 +152,32 @@ struct Footprint {
     double end_radius = 0;  // eye or block round the pin
   };
   std::array<Run, 2> runs;
+  // A riveted lap beside its run: the tail and the manufactured heads outside, the round closing
+  // heads inside (the band solid and the rivets of geometry/assemble.cpp), as strips.
+  std::vector<Run> laps;
 };
 
-Footprint footprint(const Layout& L, double t, const std::array<double, 2>& end_radius) {
+Footprint footprint(const Layout& L, double t, const std::array<double, 2>& end_radius,
+                    const std::array<const JointPlan*, 2>& joints = {nullptr, nullptr}) {
   Footprint f;
   f.band_outer = L.r_band + t / 2;
   const EndLayout* e[2] = {&L.a, &L.b};
   for (int i = 0; i < 2; ++i) f.runs[i] = {e[i]->tangent_point, e[i]->pin, t / 2, end_radius[i]};
+  for (int i = 0; i < 2; ++i) {
+    const JointPlan* j = joints[static_cast<std::size_t>(i)];
+    if (!j || j->kind == JointKind::welded_block || j->rivet_at.empty()) continue;
+    const Vec2 u = e[i]->run_dir, tp = e[i]->tangent_point;
+    Vec2 n{-u.y, u.x};
+    if (n.x * tp.x + n.y * tp.y < 0) n = {u.y, -u.x};  // outward, away from the drum
+    const double h = t / 2, k = j->rivets.size.k, a = j->rivets.size.dk / 2;
+    const double s0 = j->rivet_at.back() - a, s1 = j->rivet_at.front() + a;  // the rows' heads
+    const double lap_end = j->rivet_at.front() + j->edge;                    // ρ + lap
+    auto strip = [&](double from, double to, double offset, double half) {
+      f.laps.push_back({add(add(e[i]->pin, u, from), n, offset), add(add(e[i]->pin, u, to), n, offset), half, 0});
+    };
+    strip(std::min(s0, lap_end - j->lap), std::max(s1, lap_end), 2 * h + k / 2, h + k / 2);
+    if (j->rivets.closing_height() > 0) strip(s0, s1, -(h + k / 2), k / 2);
+  }
   return f;
 }
 
@@ -169,6 +188,7 @@ double disc_to_band(Vec2 c, double r, const Footprint& f) {
     d = std::min(d, point_segment(c, run.from, run.to) - run.half - r);
     d = std::min(d, dist(c, run.to) - run.end_radius - r);
   }
+  for (const auto& lap : f.laps) d = std::min(d, point_segment(c, lap.from, lap.to) - lap.half - r);
   return d;
 }
 
@@ -360,6 +380,32 @@ JointResult welded_block(const JointInput& in, const Layout& L, bool a) {
                                 note));
   r.passes = std::all_of(r.checks.begin(), r.checks.end(), [](const Check& c) { return c.ok; });
   return r;
+}
+
+// The rows of a riveted lap along the run, and the rivet that closes them: a round closing head
+// (a spherical cap d_k × k, the manufactured head's form) stands below the run's drum-side face;
+// near the tangent point that face comes close to the band's circle r_b − t/2 (lining face, or
+// the drum for a bare band), so where a round head would come within `clearance` of it the
+// joint's rivets are closed flush instead (countersunk into the run). Never a refusal.
+void place_rivets(JointPlan& j, const EndLayout& e, double r_band, double t, double pin_r) {
+  const double rho = pin_r + t / 2;
+  j.rivet_at.clear();
+  for (int row = 0; row < j.rows; ++row) j.rivet_at.push_back(rho + j.lap - (j.edge + row * j.pitch));
+  standard::RivetSet round = standard::choose_rivet(j.rivet, 2 * t, standard::RivetClosing::round);
+  // The head's profile in the plane of the run: depth z(u) = √(R² − u²) − (R − k) below the
+  // face at u along the run from the rivet's axis, R = (a² + k²)/(2k) the sphere's radius.
+  const double a = round.size.dk / 2, k = round.size.k, R = (a * a + k * k) / (2 * k);
+  const double ri = r_band - t / 2;  // the run's drum-side face is tangent to this circle at T
+  bool clears = true;
+  for (double s : j.rivet_at) {
+    for (int i = 0; i <= 64; ++i) {
+      const double u = -a + 2 * a * i / 64.0;
+      const double z = std::sqrt(std::max(0.0, R * R - u * u)) - (R - k);
+      const double w = e.free_length - s - u;  // from the tangent point toward the pin
+      if (std::hypot(w, ri - z) < ri + clearance) clears = false;
+    }
+  }
+  j.rivets = clears ? round : standard::choose_rivet(j.rivet, 2 * t, standard::RivetClosing::flush);
 }
 
 JointKind kind_of(EndJointChoice c) {
@@ -849,6 +895,7 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
       chosen = *least;
     }
     chosen->plan.chosen_automatically = !forced;
+    if (chosen->plan.kind != JointKind::welded_block) place_rivets(chosen->plan, e, L.r_band, t, pin_r);
     (a ? plan.joint_a : plan.joint_b) = chosen->plan;
     plan.checks.insert(plan.checks.end(), chosen->checks.begin(), chosen->checks.end());
   }
@@ -953,9 +1000,10 @@ HardwarePlan plan_hardware(const Design& design, const Solution& solution) {
       }
     }
   }
-  const Footprint fp_applied = footprint(L, t, ends);
+  const std::array<const JointPlan*, 2> joints{&plan.joint_a, &plan.joint_b};
+  const Footprint fp_applied = footprint(L, t, ends, joints);
   std::vector<Footprint> fps{fp_applied};
-  if (released) fps.push_back(footprint(*released, t, ends));
+  if (released) fps.push_back(footprint(*released, t, ends, joints));
 
   // A band-end pin must not cross the other end's run.
   for (int i = 0; i < 2; ++i) {

@@ -99,6 +99,14 @@ struct JointPlan {
   std::vector<double> across;    ///< column positions from the band's back edge [m]
   double lap = 0;                ///< tail length laid back on the run [m]
   double rivet_capacity = 0;     ///< shear capacity of all rivets [N]
+  /// Each row's distance from the pin centre along the run toward the drum [m], the row nearest
+  /// the tail's free end first: ρ + lap − (edge + k·pitch), ρ = pin radius + t/2 (the band
+  /// blank's holes with the eye closed, geometry/flat_band.cpp).
+  std::vector<double> rivet_at;
+  /// The rivets as bought and set: round head on the tail (outside), closed round on the run's
+  /// drum side, or flush where a round closing head would come within `hardware_rules::
+  /// clearance` of the band's circle (short runs: the rows near the tangent point).
+  standard::RivetSet rivets;
   // Welded end block (part coordinates: pin at the origin, run along −x toward the drum).
   double block_front = 0;        ///< block face beyond the pin, from the pin centre [m]
   double block_back = 0;         ///< block face toward the drum, from the pin centre [m]

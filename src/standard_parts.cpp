@@ -46,6 +46,26 @@ constexpr SplitRow kSplits[] = {
     {8, 7.5, 15},    {10, 9.5, 19},   {13, 12.4, 24.8},
 };
 
+// Round-head rivets: d, d_k, k [mm]. 1–8 mm: DIN 660:2012-01 Table 1 (d_k nominal, k js14), as
+// tabulated by fasten.it (DIN 660 norm page) and vidasan.com (DIN 660 / ISO 1051 round head
+// rivets), both read for this table. 10–36 mm: DIN 124 (round head rivets for steel
+// construction), from memory, not checked against the standard.
+struct RivetRow {
+  double d, dk, k;
+  const char* standard;
+};
+constexpr RivetRow kRivets[] = {
+    {1, 1.8, 0.6, "DIN 660"},    {1.2, 2.1, 0.7, "DIN 660"},  {1.4, 2.4, 0.8, "DIN 660"},
+    {1.6, 2.8, 1, "DIN 660"},    {2, 3.5, 1.2, "DIN 660"},    {2.5, 4.4, 1.5, "DIN 660"},
+    {3, 5.2, 1.8, "DIN 660"},    {3.5, 6.2, 2.1, "DIN 660"},  {4, 7, 2.4, "DIN 660"},
+    {5, 8.8, 3, "DIN 660"},      {6, 10.5, 3.6, "DIN 660"},   {7, 12.2, 4.2, "DIN 660"},
+    {8, 14, 4.8, "DIN 660"},
+    {10, 16, 6.5, "DIN 124"},    {12, 19, 7.5, "DIN 124"},    {14, 22, 9, "DIN 124"},
+    {16, 25, 10, "DIN 124"},     {18, 28, 11.5, "DIN 124"},   {20, 32, 13, "DIN 124"},
+    {22, 36, 14, "DIN 124"},     {24, 40, 16, "DIN 124"},     {27, 43, 17, "DIN 124"},
+    {30, 48, 19, "DIN 124"},     {33, 53, 21, "DIN 124"},     {36, 58, 23, "DIN 124"},
+};
+
 std::vector<double> scaled(std::initializer_list<double> values) {
   std::vector<double> out;
   for (double v : values) out.push_back(v * mm);
@@ -144,6 +164,64 @@ std::string PinSet::washer_designation() const {
 
 std::string PinSet::split_designation() const {
   return "Split pin ISO 1234 - " + size_text(split.nominal) + " × " + size_text(split_length) + " - St";
+}
+
+const std::vector<double>& rivet_series() {
+  static const std::vector<double> s = [] {
+    std::vector<double> out;
+    for (const RivetRow& r : kRivets) out.push_back(r.d * mm);
+    return out;
+  }();
+  return s;
+}
+
+// Lengths 2…28 mm: the rows of DIN 660:2012-01's mass table (fasten.it); longer ones from memory.
+const std::vector<double>& rivet_lengths() {
+  static const std::vector<double> s =
+      scaled({2, 3, 4, 5, 6, 8, 10, 12, 14, 16, 18, 20, 22, 25, 28, 30, 32, 35, 38, 40, 42, 45,
+              48, 50, 55, 60, 65, 70, 75, 80, 85, 90, 95, 100, 110, 120, 130, 140, 150, 160});
+  return s;
+}
+
+RivetSize round_head_rivet(double nominal) {
+  for (const RivetRow& r : kRivets) {
+    if (r.d * mm >= nominal - 1e-6) return {r.d * mm, r.dk * mm, r.k * mm, r.standard};
+  }
+  const RivetRow& r = kRivets[std::size(kRivets) - 1];
+  const double f = nominal / (r.d * mm);
+  return {nominal, r.dk * mm * f, r.k * mm * f, r.standard};
+}
+
+double rivet_allowance(double nominal, RivetClosing closing) {
+  return (closing == RivetClosing::round ? 1.5 : 0.8) * nominal;
+}
+
+RivetSet choose_rivet(double nominal, double clamp, RivetClosing closing) {
+  RivetSet s;
+  s.size = round_head_rivet(nominal);
+  s.standard_size = nominal <= rivet_series().back() + 1e-9;
+  s.clamp = clamp;
+  s.closing = closing;
+  s.allowance = rivet_allowance(s.size.d, closing);
+  const double need = clamp + s.allowance;
+  for (double l : rivet_lengths()) {
+    if (l >= need - 1e-9) {
+      s.length = l;
+      break;
+    }
+  }
+  if (s.length == 0) {
+    s.length = rivet_lengths().back();
+    while (s.length < need - 1e-9) s.length += 5 * mm;
+    s.standard_length = false;
+  }
+  return s;
+}
+
+std::string RivetSet::designation() const {
+  return std::string("Round head rivet ") + size.standard + " - " + size_text(size.d) + " × " +
+         size_text(length) + " - St" + (closing == RivetClosing::flush ? ", closed flush" : "") +
+         (standard_size && standard_length ? "" : " (special)");
 }
 
 PinSet choose_pin(double diameter, double grip) {

@@ -948,13 +948,15 @@ TEST(DrawingDetail, LeverHoleTableMatchesThePinsOfTheDesign) {
 
 // A frame pin beside the pivot shares one bracket with it (src/hardware.cpp): its detail sheet's
 // hole table gives the distance between the two pin centres of the design file, 30 mm apart in x
-// and y: √(30² + 30²) = 42.4 mm.
+// and y: √(30² + 30²) = 42.4 mm. End A above the pivot's right: below it (-80, -330) the pivot's
+// pin would stand 7.3 mm outside run A's centreline where the lap's rivet heads reach 8.1 mm
+// (3t/2 + k, DIN 660 Ø6 k = 3.6), so the plan moves the pivot in front and the bracket is not shared.
 TEST(DrawingDetail, SharedBracketHoleTableMatchesThePins) {
   std::string text = slurp(kExample);
   const std::string from = "end_a = { mount = \"frame\", at = [\"-60 mm\", \"-300 mm\"] }";
   const auto at = text.find(from);
   ASSERT_NE(at, std::string::npos);
-  text.replace(at, from.size(), "end_a = { mount = \"frame\", at = [\"-80 mm\", \"-330 mm\"] }");
+  text.replace(at, from.size(), "end_a = { mount = \"frame\", at = [\"-80 mm\", \"-270 mm\"] }");
   const fs::path file = scratch_root() / "shared-bracket.toml";
   std::ofstream(file) << text;
   auto d = draw(file.string(), "shared-bracket.pdf");
@@ -1202,7 +1204,8 @@ TEST(DrawingBandSheet, SizesLengthAndRivetsMatchTheDesignAndTheFabPack) {
     std::smatch m;
     ASSERT_TRUE(std::regex_search(page, m, std::regex(R"(developed length ([\d.]+) mm)"))) << page;
     EXPECT_NEAR(std::stod(m[1]), blank, 0.05 + 0.005);
-    // Rivets: the parts table rows "Rivet Ø6 (joints)  steel, bought  16" (read with -layout).
+    // Rivets: the parts table rows "Rivet DIN 660 - 6 × 16  steel, bought  16" (read with -layout):
+    // the joint rivets by their standard (DIN 660 for 1–8 mm), nominal = the blank's hole.
     const std::string table = squeezed(text_of(pdf, band_page, true));
     const auto band_holes = dxf_holes(out / "fab" / "band-blank.dxf");
     const auto lining_holes = dxf_holes(out / "fab" / "lining-blank.dxf");
@@ -1211,7 +1214,7 @@ TEST(DrawingBandSheet, SizesLengthAndRivetsMatchTheDesignAndTheFabPack) {
     for (const auto& [dia, n] : band_holes) band_all += n;
     ASSERT_EQ((band_all - lining_rivets) % 2, 0);
     const int joint_rivets = (band_all - lining_rivets) / 2;
-    ASSERT_TRUE(std::regex_search(table, m, std::regex(R"(Rivet Ø([\d.]+) \(joints\) steel, bought (\d+))"))) << table;
+    ASSERT_TRUE(std::regex_search(table, m, std::regex(R"(Rivet DIN \d+ - ([\d.]+) × [\d.]+ steel, bought (\d+))"))) << table;
     EXPECT_EQ(std::stoi(m[2]), joint_rivets);
     EXPECT_EQ(band_holes.count(std::stod(m[1])), 1u) << "joint rivet Ø" << m[1] << " is a hole size of the band blank";
     if (lining_rivets > 0) {

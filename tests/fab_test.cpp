@@ -144,14 +144,18 @@ double span(const std::vector<Vec2>& pts) {
 
 namespace {
 
-Design example_with(const std::string& from, const std::string& to) {
+// The example with each `from` replaced by its `to` (each must be there).
+Design example_with(const std::vector<std::pair<std::string, std::string>>& edits) {
   const fs::path p = fs::path(BANDFORGE_SOURCE_DIR) / "examples" / "bin-hoist.toml";
   std::string text = slurp(p);
-  const auto at = text.find(from);
-  EXPECT_NE(at, std::string::npos) << "example no longer contains: " << from;
-  if (at != std::string::npos) text.replace(at, from.size(), to);
+  for (const auto& [from, to] : edits) {
+    const auto at = text.find(from);
+    EXPECT_NE(at, std::string::npos) << "example no longer contains: " << from;
+    if (at != std::string::npos) text.replace(at, from.size(), to);
+  }
   return read_design_text(text, "bin-hoist-variant.toml");
 }
+Design example_with(const std::string& from, const std::string& to) { return example_with({{from, to}}); }
 
 // Runs write_fab_pack expecting a BuildError; returns its message.
 std::string refusal(const Built& b, const fs::path& out) {
@@ -347,8 +351,12 @@ TEST(FabPack, LeverPlateWithABentOutlineMatchesTheSolid) {
   // Handle raised 100 mm: pivot, pin B and handle make a triangle, so the outline has three arcs
   // of different sweeps. Steiner's formula for a convex polygon grown by a disc of radius
   // w/2 gives the plate by hand: area A + P·w/2 + π(w/2)², perimeter P + πw.
-  const Built b = build(example_with("handle = [\"700 mm\", \"-300 mm\"]",
-                                     "handle = [\"700 mm\", \"-200 mm\"]"), "bent");
+  // The spring, its seat and the actuator rise with the handle.
+  const Built b = build(example_with({{"handle = [\"700 mm\", \"-300 mm\"]", "handle = [\"700 mm\", \"-200 mm\"]"},
+                                      {"at = [\"700 mm\", \"-270 mm\"]", "at = [\"700 mm\", \"-170 mm\"]"},
+                                      {"actuator_at = [\"700 mm\", \"-300 mm\"]", "actuator_at = [\"700 mm\", \"-200 mm\"]"},
+                                      {"seat = [\"700 mm\", \"-120 mm\"]", "seat = [\"700 mm\", \"-20 mm\"]"}}),
+                        "bent");
   const FabPack pack = make_fab_pack(b.design, b.solution, b.model);
   const FlatPart& lever = *find(pack, "LEVER-PLATE");
   const Vec2 o{-110, -300}, pin{60 - o.x, -300 - o.y}, handle{700 - o.x, -200 - o.y};

@@ -3,6 +3,7 @@
 // REFERENCE §1.8, areas of strips, annuli and circular segments), never a number read back from
 // the code under test.
 #include <cmath>
+#include <cstdio>
 #include <filesystem>
 #include <numbers>
 #include <string>
@@ -14,7 +15,9 @@
 #include <BRepAlgoAPI_Common.hxx>
 #include <BRepBuilderAPI_MakeVertex.hxx>
 #include <BRepClass3d_SolidClassifier.hxx>
+#include <BRepBndLib.hxx>
 #include <BRepExtrema_DistShapeShape.hxx>
+#include <Bnd_Box.hxx>
 #include <BRepGProp.hxx>
 #include <BRepPrimAPI_MakeCylinder.hxx>
 #include <BRep_Tool.hxx>
@@ -23,11 +26,16 @@
 #include <TopoDS.hxx>
 #include <gp_Ax2.hxx>
 
+#include <utility>
+#include <vector>
+
 #include "geometry/assemble.hpp"
 #include "src/band_path.hpp"
 #include "src/hardware.hpp"
 #include "geometry/brake_model.hpp"
+#include "geometry/flat_patterns.hpp"
 #include "geometry/occt_model.hpp"
+#include "geometry/spring_solid.hpp"
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
@@ -120,7 +128,15 @@ constexpr double Ax = -60, Ay = -300, Bx = 60, By = -300, Ox = -110, Oy = -300;
 constexpr double r_b = D / 2 + t_lin + t / 2;  // band centreline radius 206.5 mm
 constexpr int s_cw = -1;                       // [band] sense = "cw"
 
-TEST(BandSolid, VolumeIsThicknessTimesWidthTimesCentrelineLengthPlusTheEyes) {
+// The tail of a riveted lap (geometry/solids.cpp make_band): the strip between offsets h and 3h
+// outside the run, from the eye ring's outer circle (radius R) to X_end from the pin centre:
+// area 2h·X_end − ∫_h^{3h} √(R² − y²) dy, with ∫√(R² − y²) dy = (y√(R² − y²) + R²·asin(y/R))/2.
+double tail_area(double h, double R, double x_end) {
+  auto F = [&](double y) { return (y * std::sqrt(R * R - y * y) + R * R * std::asin(y / R)) / 2; };
+  return 2 * h * x_end - (F(3 * h) - F(h));
+}
+
+TEST(BandSolid, VolumeIsThicknessTimesWidthTimesCentrelineLengthPlusTheEyesAndTails) {
   const Built x = build(read_design_file(kExample));
   // Centreline from the mechanics (ℓ_A + ℓ_B + r_b·φ), checked against the hand value first.
   const double phi = std::fmod(s_cw * (tangent_angle(Bx, By, r_b, s_cw, false) -
@@ -136,8 +152,174 @@ TEST(BandSolid, VolumeIsThicknessTimesWidthTimesCentrelineLengthPlusTheEyes) {
   const double h = t / 2, rho = d_pin / 2, R = rho + t;
   const double strip_in_disc = h * std::sqrt(R * R - h * h) + R * R * std::asin(h / R);
   const double eye = pi * (R * R - rho * rho) - strip_in_disc;
-  const double expected = b * (t * L + 2 * eye);
+  // Both ends are riveted laps (solve: riveted-lap, Ø6 rivets, 2 rows): d = max(5, 2t) = 6,
+  // edge 2d = 12, pitch 3d = 18 (src/hardware.cpp's rule, common practice), lap = 2·12 + 18 =
+  // 42 mm; the tail ends ρ_n + lap from the pin, ρ_n = ρ + h the eye's neutral radius.
+  ASSERT_EQ(x.solution.hardware.joint_a.kind, JointKind::riveted_lap);
+  ASSERT_EQ(x.solution.hardware.joint_b.kind, JointKind::riveted_lap);
+  ASSERT_NEAR(x.solution.hardware.joint_a.lap * 1000, 42, 1e-9);
+  ASSERT_NEAR(x.solution.hardware.joint_b.lap * 1000, 42, 1e-9);
+  const double tail = tail_area(h, R, rho + h + 42);
+  // No rivet holes in the band solid (the rivets fill them: assemble.cpp), so nothing to subtract.
+  const double expected = b * (t * L + 2 * eye + 2 * tail);
   EXPECT_NEAR(part(x.model, "BAND").volume, expected, 1e-7 * expected);
+}
+
+TEST(BandSolid, VolumeAgainstTheCutListsDevelopedLength) {
+  // The band blank (fab pack) is developed on the neutral axis: centreline + per riveted end
+  // (2π − 1)ρ_n + lap, ρ_n = pin radius + t/2. The solid's eye is a ring (area 2πρ_n·t exactly)
+  // whose run and tail start where they meet its outer circle, about h beyond the blank's
+  // stations; so per end solid − blank = b·(2ρ_n·t − strip_in_disc − tail_start), where
+  // strip_in_disc = ∫_{−h}^{h} √(R² − y²) dy and tail_start = ∫_h^{3h} √(R² − y²) dy: the solid
+  // holds less than one band thickness of strip fewer per end (here −602 mm³, 7.5 mm × t × b,
+  // of 361 cm³: 0.17 %); the teardrop a real eye makes is not modelled.
+  const Built x = build(read_design_file(kExample));
+  const FabPack pack = make_fab_pack(x.design, x.solution, x.model);
+  const FlatPart* blank = nullptr;
+  for (const FlatPart& f : pack.parts) {
+    if (f.name == "BAND-BLANK") blank = &f;
+  }
+  ASSERT_NE(blank, nullptr);
+  const double h = t / 2, R = d_pin / 2 + t, rho_n = d_pin / 2 + h;
+  auto F = [&](double y) { return (y * std::sqrt(R * R - y * y) + R * R * std::asin(y / R)) / 2; };
+  const double strip_in_disc = F(h) - F(-h), tail_start = F(3 * h) - F(h);
+  const double per_end = b * (2 * rho_n * t - strip_in_disc - tail_start);
+  EXPECT_LT(per_end, 0);
+  EXPECT_GT(per_end, -t * t * b);
+  const double expected = t * b * blank->length + 2 * per_end;
+  EXPECT_NEAR(part(x.model, "BAND").volume, expected, 1e-7 * expected);
+}
+
+TEST(Rivets, OneInstancePerJointHoleOfTheDinSize) {
+  // Both ends riveted-lap with 2 rows × 4 columns of Ø6 rivets (solve --json): 16 rivets.
+  // DIN 660 Ø6: d_k = 10.5, k = 3.6 (DIN 660:2012-01 Table 1, fasten.it); clamp 2t = 6 mm and a
+  // round closing head: length 6 + 1.5·6 = 15 → 16 mm (standard_parts_test).
+  const Built x = build(read_design_file(kExample));
+  const JointPlan& ja = x.solution.hardware.joint_a;
+  ASSERT_EQ(ja.rows * ja.columns, 8);
+  ASSERT_EQ(x.solution.hardware.joint_b.rows * x.solution.hardware.joint_b.columns, 8);
+  const PartInfo& rivet = part(x.model, "RIVET-6x16");
+  EXPECT_EQ(rivet.instance_names.size(), 16u);
+  EXPECT_EQ(rivet.designation, "Round head rivet DIN 660 - 6 × 16 - St");
+  std::size_t rivets = 0;
+  for (std::size_t i = 0; i < x.model.parts().size(); ++i) {
+    if (x.model.impl().parts[i].kind == PartKind::rivet) rivets += x.model.parts()[i].instance_names.size();
+  }
+  EXPECT_EQ(rivets, 16u);
+  // As set: two spherical caps of base radius a and height k, V_cap = πk(3a² + k²)/6 (sphere
+  // segment), and the shank πd²/4 through the clamp.
+  const double d = 6, a = 10.5 / 2, k = 3.6, clamp = 2 * t;
+  const double cap = pi * k * (3 * a * a + k * k) / 6;
+  EXPECT_NEAR(rivet.volume, 2 * cap + pi * d * d / 4 * clamp, 1e-6 * rivet.volume);
+  // In its own frame: head underside at z = 0, d_k wide, from −k to clamp + k.
+  Bnd_Box box;
+  BRepBndLib::AddOptimal(x.model.impl().parts[x.model.impl().find(PartKind::rivet)].shape, box, false, false);
+  double x0, y0, z0, x1, y1, z1;
+  box.Get(x0, y0, z0, x1, y1, z1);
+  EXPECT_NEAR(x1 - x0, 2 * a, 1e-6);
+  EXPECT_NEAR(y1 - y0, 2 * a, 1e-6);
+  EXPECT_NEAR(z0, -k, 1e-6);
+  EXPECT_NEAR(z1, clamp + k, 1e-6);
+  // Every rivet–band pair is an intended contact (the shank through tail and run).
+  for (const ContactCheck& c : x.model.contacts()) {
+    if (c.part_a.rfind("RIVET-", 0) == 0 || c.part_b.rfind("RIVET-", 0) == 0) {
+      EXPECT_TRUE(c.ok) << c.part_a << " / " << c.part_b;
+      if (c.part_a == "BAND" || c.part_b == "BAND") {
+        EXPECT_TRUE(c.intended);
+      }
+    }
+  }
+}
+
+TEST(Rivets, CutListBuysThemByDesignation) {
+  // One "bought" row per rivet part: the example's 16 rivets are one size (2 × 8 per end).
+  const Built x = build(read_design_file(kExample));
+  int rows = 0;
+  for (const CutListRow& r : cut_list(x.design, x.solution, x.model)) {
+    if (r.part.rfind("RIVET-", 0) != 0) continue;
+    ++rows;
+    EXPECT_EQ(r.part, "RIVET-6x16");
+    EXPECT_EQ(r.stock, "bought");
+    EXPECT_EQ(r.quantity, 16);
+    EXPECT_EQ(r.note.rfind("Round head rivet DIN 660 - 6 × 16 - St; for RIVET-A-1", 0), 0u) << r.note;
+    EXPECT_NEAR(r.mass, part(x.model, "RIVET-6x16").volume * 1e-9 * 7850, 1e-12);  // steel 7850 kg/m³
+  }
+  EXPECT_EQ(rows, 1);
+}
+
+TEST(Rivets, ShortRunClosesThemFlushInsteadOfRefusing) {
+  // Pin A moved 150 mm along its run toward the drum (its run 216.2 → ~66 mm, the 42 mm lap
+  // still fits): a round closing head 3.6 mm deep on the rivets ~12 mm from the tangent point
+  // would need the run's drum-side face to stand √(2·205·3.6) ≈ 38 mm from T to clear the
+  // lining by nothing (circle r_b − t/2 = 205 mm): the plan closes them flush and the build passes.
+  const Design base = read_design_file(kExample);
+  const Solution s0 = solve(base);
+  const EndLayout& e = s0.layout.a;
+  const double move = 0.150;
+  const Vec2 at{e.pin.x + e.run_dir.x * move, e.pin.y + e.run_dir.y * move};
+  char line[160];
+  std::snprintf(line, sizeof line, "at = [\"%.4f mm\", \"%.4f mm\"]", at.x * 1000, at.y * 1000);
+  const Design d = read_design_text(edited("at = [\"-60 mm\", \"-300 mm\"]", line), "short.toml");
+  const Built x = build(d);
+  const JointPlan& j = x.solution.hardware.joint_a;
+  ASSERT_NE(j.kind, JointKind::welded_block);
+  EXPECT_EQ(j.rivets.closing, standard::RivetClosing::flush);
+  EXPECT_EQ(x.solution.hardware.joint_b.rivets.closing, standard::RivetClosing::round);
+  bool flush_part = false;
+  for (const PartInfo& p : x.model.parts()) {
+    if (p.name.find("-FLUSH") != std::string::npos) {
+      flush_part = true;
+      // Shank through the clamp and one cap: V = πk(3a² + k²)/6 + πd²/4·2t.
+      EXPECT_NEAR(p.volume, pi * 3.6 * (3 * 5.25 * 5.25 + 3.6 * 3.6) / 6 + pi * 9 * 2 * t, 1e-6 * p.volume);
+    }
+  }
+  EXPECT_TRUE(flush_part);
+}
+
+TEST(Rivets, SitOnTheBandBlanksHolesMappedOntoTheRun) {
+  // The blank's joint holes for end A lie between the bend lines "eye A closes" (B2) and "roll
+  // starts" (B3); a hole x from B2 lies ρ_n + x from the pin along the run (the straight run
+  // starts ρ_n from the pin centre: flat_band.cpp's developed lengths). Its rivet's head sits on
+  // the tail's outside face, 3h outside the run's centreline, at z = band back + y.
+  const Built x = build(read_design_file(kExample));
+  const FabPack pack = make_fab_pack(x.design, x.solution, x.model);
+  const FlatPart* blank = nullptr;
+  for (const FlatPart& f : pack.parts) {
+    if (f.name == "BAND-BLANK") blank = &f;
+  }
+  ASSERT_NE(blank, nullptr);
+  ASSERT_GE(blank->bend_lines.size(), 3u);
+  const double b2 = blank->bend_lines[1].x1, b3 = blank->bend_lines[2].x1;
+  const double h = t / 2, rho_n = d_pin / 2 + h;
+  // End A by hand: pin (Ax, Ay), tangent point on r_b at β_A.
+  const double beta = tangent_angle(Ax, Ay, r_b, s_cw, true);
+  const double Tx = r_b * std::cos(beta), Ty = r_b * std::sin(beta);
+  const double run = std::hypot(Tx - Ax, Ty - Ay), ux = (Tx - Ax) / run, uy = (Ty - Ay) / run;
+  const double nx = std::cos(beta), ny = std::sin(beta);  // outward, square to the run at T
+  std::vector<Vec3> expected;
+  for (const FlatCircle& hole : blank->holes) {
+    if (hole.x <= b2 || hole.x >= b3 || std::abs(hole.radius - 3) > 1e-9) continue;
+    const double s = rho_n + (hole.x - b2);
+    expected.push_back({Ax + ux * s + nx * 3 * h, Ay + uy * s + ny * 3 * h,
+                        x.model.impl().axial.band_back + hole.y});
+  }
+  ASSERT_EQ(expected.size(), 8u);  // 2 rows × 4 columns
+  const PartInfo& rivet = part(x.model, "RIVET-6x16");
+  std::size_t matched = 0;
+  for (std::size_t i = 0; i < rivet.instance_names.size(); ++i) {
+    if (rivet.instance_names[i].rfind("RIVET-A-", 0) != 0) continue;
+    const Vec3 o = rivet.instance_origins[i];
+    for (const Vec3& e : expected) {
+      if (std::hypot(o.x - e.x, o.y - e.y) < 1e-6 && std::abs(o.z - e.z) < 1e-6) ++matched;
+    }
+    // Its axis points into the band, toward the drum: the shank's middle lies on the run's
+    // mid-plane between tail and run (h outside the centreline), inside the band solid.
+    const auto& placement = x.model.impl().instances[instance_index(x.model, rivet.instance_names[i])].placement;
+    const gp_Pnt mid = gp_Pnt(0, 0, t).Transformed(placement);
+    EXPECT_NEAR((mid.X() - Ax) * nx + (mid.Y() - Ay) * ny, h, 1e-6);
+    EXPECT_TRUE(inside(placed(x.model, "BAND"), mid));
+  }
+  EXPECT_EQ(matched, 8u);
 }
 
 TEST(BandSolid, EyeHugsThePinSoTheBandReachesIt) {
@@ -380,6 +562,14 @@ TEST(Interference, LeverCrossingTheDrumIsMovedInFrontOfItsFace) {
   const std::size_t at = text.find("handle = [\"700 mm\", \"-300 mm\"]");
   ASSERT_NE(at, std::string::npos);
   text.replace(at, 30, "handle = [\"700 mm\", \"-100 mm\"]");
+  // The spring, its seat and the actuator rise with the lever's end.
+  for (const auto& [from, to] : std::vector<std::pair<std::string, std::string>>{
+           {"at = [\"700 mm\", \"-270 mm\"]", "at = [\"700 mm\", \"-70 mm\"]"},
+           {"actuator_at = [\"700 mm\", \"-300 mm\"]", "actuator_at = [\"700 mm\", \"-100 mm\"]"},
+           {"seat = [\"700 mm\", \"-120 mm\"]", "seat = [\"700 mm\", \"80 mm\"]"}}) {
+    ASSERT_NE(text.find(from), std::string::npos) << from;
+    text.replace(text.find(from), from.size(), to);
+  }
   const Design d = read_design_text(text, "lever-across-drum.toml");
   const Built x = build(d);
   EXPECT_TRUE(x.solution.hardware.axial.lever_outboard);
@@ -673,6 +863,89 @@ torque = "2000 N*m"
     EXPECT_NE(std::string(e.what()).find("cannot build the released state"), std::string::npos) << e.what();
     EXPECT_NE(std::string(e.what()).find("at least"), std::string::npos) << e.what();
   }
+}
+
+// ---- The applying element as built (issue: self-setting brakes, item 5) ----
+
+// The example's [apply] section replaced by `apply` (up to the next section).
+std::string with_apply(const std::string& apply) {
+  std::string text = test::slurp(kExample);
+  const std::size_t from = text.find("[apply]"), to = text.find("[load]");
+  EXPECT_TRUE(from != std::string::npos && to != std::string::npos);
+  text.replace(from, to - from, apply + "\n");
+  return text;
+}
+
+TEST(ApplyElement, SpringSolidHasTheWireVolumeAndSitsOnBothSeats) {
+  const Built x = build(read_design_text(test::slurp(kExample), kExample));
+  const SpringResult& sp = x.solution.apply.spring;
+  ASSERT_TRUE(sp.found);
+  const double wd = sp.wire_diameter * 1000, Dm = sp.mean_diameter * 1000, Nt = sp.total_coils;
+  // Wire volume π²·D·d²·N_t/4 (section π d²/4 × wire length ≈ π D per coil; the issue's ±2 %:
+  // the grinding of the two ends takes about 2 % off, the helix's pitch adds about 0.2 %), and
+  // within 1e-4 of the same centreline's integral less the ground-off segments
+  // (spring_volume_estimate, derived in tests/spring_solid_test.cpp).
+  const double wire_volume = pi * pi * Dm * wd * wd * Nt / 4;
+  EXPECT_NEAR(part(x.model, "SPRING").volume, wire_volume, 0.02 * wire_volume);
+  SpringDims sd{wd, Dm, Nt, sp.active_coils, sp.ends, sp.applied.length * 1000};
+  EXPECT_NEAR(part(x.model, "SPRING").volume, spring_volume_estimate(sd), 1e-4 * wire_volume);
+  EXPECT_NE(part(x.model, "SPRING").designation.find("N_t " + std::to_string(static_cast<int>(Nt))), std::string::npos)
+      << part(x.model, "SPRING").designation;
+  // Its ends on the seat faces: apply.at (700, −270) and apply.seat (700, −120), axis along y.
+  Bnd_Box box;
+  BRepBndLib::AddOptimal(placed(x.model, "SPRING"), box, false, false);  // exact, not control points
+  double x0, y0, z0, x1, y1, z1;
+  box.Get(x0, y0, z0, x1, y1, z1);
+  const double gap = box.GetGap();
+  EXPECT_NEAR(y0 + gap, -270, 1e-3);
+  EXPECT_NEAR(y1 - gap, -120, 1e-3);
+  EXPECT_LE(x1 - gap, 700 + sp.outer_diameter * 500 + 0.05);
+  EXPECT_GE(x0 + gap, 700 - sp.outer_diameter * 500 - 0.05);
+  for (const char* seat : {"SEAT-LEVER", "SEAT-FRAME"}) {
+    BRepExtrema_DistShapeShape dist(placed(x.model, "SPRING"), placed(x.model, seat));
+    ASSERT_TRUE(dist.IsDone());
+    EXPECT_LT(dist.Value(), 1e-6) << seat;
+  }
+  // The frame seat: disc Ø × t and spigot (the plan's sizes), π/4·(Ø²·t + d_s²·h).
+  const SeatPlan& fs = x.solution.apply.mount.frame_seat;
+  EXPECT_NEAR(part(x.model, "SEAT-FRAME").volume,
+              pi / 4 * 1e9 * (fs.diameter * fs.diameter * fs.thickness + fs.spigot_diameter * fs.spigot_diameter * fs.spigot_height),
+              1e-3);
+  // The lever seat is notched over the lever's edge: it touches the lever and no more.
+  for (const ContactCheck& c : x.model.contacts()) {
+    if ((c.part_a == "LEVER" && c.part_b == "SEAT-LEVER") || (c.part_a == "SEAT-LEVER" && c.part_b == "LEVER")) {
+      EXPECT_TRUE(c.intended);
+      EXPECT_LE(c.common_volume, c.tolerance);
+    }
+    EXPECT_TRUE(c.ok) << c.part_a << " / " << c.part_b;
+  }
+}
+
+TEST(ApplyElement, ReleasedSpringIsAsLongAsSolveSays) {
+  const Built x = build(read_design_text(test::slurp(kExample), kExample), true);
+  const SpringResult& sp = x.solution.apply.spring;
+  const PartInfo& info = part(x.model, "SPRING");
+  ASSERT_EQ(info.instance_origins.size(), 1u);
+  // The spring's lever end is its origin; the frame end stays on apply.seat.
+  const Vec3 o = info.instance_origins[0];
+  EXPECT_NEAR(std::hypot(o.x - 700, o.y - -120), sp.released.length * 1000, 1e-6);
+  EXPECT_TRUE(x.model.all_valid());
+}
+
+TEST(ApplyElement, WeightBlockAndHangerWeighTheMassAndHangUnderTheLever) {
+  const Design d = read_design_text(
+      with_apply("[apply]\nby = \"weight\"\nat = [\"700 mm\", \"-300 mm\"]\nmass = \"25 kg\"\nactuator_at = [\"700 mm\", \"-300 mm\"]\n"),
+      kExample);
+  const Built x = build(d);
+  const double total = part(x.model, "WEIGHT").mass + part(x.model, "HANGER").mass;
+  // Against [apply] mass; the rod top follows the lever's rounded edge, a gram above the plan's flat top.
+  EXPECT_NEAR(total, 25.0, 0.01);
+  // Hung from the lever's lower edge under apply.at: the handle disc's bottom, y = −320 mm.
+  const gp_Pnt c = centroid(placed(x.model, "WEIGHT"));
+  EXPECT_NEAR(c.X(), 700, 1e-6);
+  const WeightMount& wm = x.solution.apply.mount.weight;
+  EXPECT_NEAR(c.Y(), -320 - (wm.drop + wm.block_height / 2) * 1000, 1e-3);
+  for (const ContactCheck& cc : x.model.contacts()) EXPECT_TRUE(cc.ok) << cc.part_a << " / " << cc.part_b;
 }
 
 }  // namespace

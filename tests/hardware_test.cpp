@@ -144,6 +144,22 @@ TEST(Joints, RivetedLapByHand) {
   EXPECT_NEAR(check(s, "joint_a_net_section").limit, 60e6 / 0.6, 1);
 }
 
+TEST(Joints, RivetRowsAndTheRivetAsBought) {
+  // bin-hoist end A: ρ_n = 8 + 1.5 = 9.5 mm (pin radius + t/2), lap 42, edge 12, pitch 18: rows at
+  // ρ_n + lap − edge = 39.5 and 39.5 − 18 = 21.5 mm from the pin along the run (the band
+  // blank's holes, geometry/flat_band.cpp). The run leaves 216.2 − 39.5 mm to the tangent point:
+  // a round closing head 3.6 deep clears the band's circle (r_b − t/2 = 205 mm) there, so the
+  // rivet is DIN 660 6 × 16 (clamp 6 + 1.5·6 = 15 → 16, standard_parts_test), closed round.
+  const Solution s = solve(read_design_file(kExample));
+  for (const JointPlan* j : {&s.hardware.joint_a, &s.hardware.joint_b}) {
+    ASSERT_EQ(j->rivet_at.size(), 2u);
+    EXPECT_NEAR(j->rivet_at[0], 0.0395, 1e-12);
+    EXPECT_NEAR(j->rivet_at[1], 0.0215, 1e-12);
+    EXPECT_EQ(j->rivets.closing, standard::RivetClosing::round);
+    EXPECT_EQ(j->rivets.designation(), "Round head rivet DIN 660 - 6 × 16 - St");
+  }
+}
+
 TEST(Joints, WeldedBlockByHand) {
   // The example with its ends asked to be welded blocks. P = 3831 N, t = 3, b = 80, d = 16.
   const Design d = read_design_text(

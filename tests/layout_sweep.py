@@ -164,17 +164,73 @@ allowable_stress = "120 MPa"
 [load]
 torque = "{torque:.1f} N*m"
 """
+    # How it is applied (drawn after the layout, so the layouts of a seed stay the same): by
+    # hand, or a spring or a weight somewhere along the lever's outer part, as a designer puts
+    # them. The spring stands square to the lever, its lever end 8–30 mm off the lever's edge, its
+    # seat 120–250 mm further; a designer who chose the side that releases the brake flips it
+    # (one() does, on solve's message).
+    how = rng.random()
+    other = None
+    t = rng.uniform(0.55, 1.0)
+    at = (pivot[0] + t * (handle[0] - pivot[0]), pivot[1] + t * (handle[1] - pivot[1]))
+    if how < 0.25:
+        ux, uy = handle[0] - pivot[0], handle[1] - pivot[1]
+        ul = math.hypot(ux, uy)
+        side = rng.choice([-1, 1])
+        nx, ny = -uy / ul * side, ux / ul * side
+        off = lever_w / 2 + rng.uniform(8, 30)
+        length = rng.uniform(120, 250)
+        # A designer keeps the spring and its seats off the drum: its axis at least the band's
+        # outer radius + 60 mm from the drum's centre (room for the coils and seats, common
+        # practice, no source), shortening it (down to 80 mm) on the drum's side.
+        def clear(k, length):
+            ax, ay = at[0] + k * off * nx, at[1] + k * off * ny
+            bx, by = ax + k * length * nx, ay + k * length * ny
+            vx, vy = bx - ax, by - ay
+            f = max(0.0, min(1.0, -(ax * vx + ay * vy) / (vx * vx + vy * vy)))
+            return math.hypot(ax + f * vx, ay + f * vy) >= R + lining_t + band_t + 60
+        def fitted(k):
+            l = length
+            while l >= 80 and not clear(k, l):
+                l *= 0.85
+            return l if l >= 80 else None
+        def spring(k, l):
+            s_at = (at[0] + k * off * nx, at[1] + k * off * ny)
+            seat = (s_at[0] + k * l * nx, s_at[1] + k * l * ny)
+            return f"""
+[apply]
+by = "spring"
+at = {point(s_at, inches)}
+seat = {point(seat, inches)}
+"""
+        sides = [(k, fitted(k)) for k in (1, -1) if fitted(k) is not None]
+        if sides:
+            other = text + spring(*sides[1]) if len(sides) == 2 else None
+            text += spring(*sides[0])
+            kind += ", spring"
+    elif how < 0.35:
+        text += f"""
+[apply]
+by = "weight"
+at = {point(at, inches)}
+mass = "{rng.uniform(5, 60):.1f} kg"
+"""
+        kind += ", weight"
     desc = (f"{kind}, D {D:.0f} mm, wrap {math.degrees(wrap):.0f}°, runs {l_l:.0f}/{l_r:.0f} mm, "
             f"{'in' if inches else 'mm'}, {'lined' if lined else 'bare'}")
-    return number, text, desc
+    return number, text, desc, other
 
 
 def one(args):
-    exe, work, number, text, desc, keep = args
+    exe, work, number, text, desc, other, keep = args
     path = os.path.join(work, number + ".toml")
     with open(path, "w", encoding="utf-8") as f:
         f.write(text)
     s = subprocess.run([exe, "solve", path], capture_output=True, text=True)
+    if s.returncode != 0 and other is not None and "put the seat on the other side" in s.stderr:
+        with open(path, "w", encoding="utf-8") as f:  # the designer moves the spring across
+            f.write(other)
+        s = subprocess.run([exe, "solve", path], capture_output=True, text=True)
     if s.returncode != 0:
         return number, desc, "unsolved", s.returncode, s.stderr.strip().splitlines()[-1:] or [""]
     out = os.path.join(work, number)
@@ -208,8 +264,8 @@ def main():
     rng = random.Random(a.seed)
     jobs = []
     for i in range(1, a.count + 1):
-        number, text, desc = generate(rng, i)
-        jobs.append((a.bandforge, a.work, number, text, desc, a.keep))
+        number, text, desc, other = generate(rng, i)
+        jobs.append((a.bandforge, a.work, number, text, desc, other, a.keep))
     with concurrent.futures.ThreadPoolExecutor(max_workers=a.jobs) as pool:
         results = list(pool.map(one, jobs))
     solved = [r for r in results if r[2] != "unsolved"]
@@ -221,6 +277,12 @@ def main():
     kinds = {}
     for r in results:
         k = r[1].split(",")[0]
+        kinds.setdefault(k, [0, 0, 0])
+        kinds[k][0] += 1
+        kinds[k][1] += r[2] != "unsolved"
+        kinds[k][2] += r[2] == "built"
+    for r in results:
+        k = "by spring" if ", spring," in r[1] else "by weight" if ", weight," in r[1] else "by hand"
         kinds.setdefault(k, [0, 0, 0])
         kinds[k][0] += 1
         kinds[k][1] += r[2] != "unsolved"

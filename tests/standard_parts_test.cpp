@@ -77,5 +77,60 @@ TEST(ClevisPins, EveryGripGetsAPinThatHoldsIt) {
   }
 }
 
+TEST(Rivets, RoundHeadRowsOfDin660AndDin124) {
+  // d → d_k / k [mm]. 5, 6, 8: DIN 660:2012-01 Table 1 as tabulated by fasten.it (DIN 660) and
+  // vidasan.com (DIN 660 / ISO 1051): 8.8 / 3, 10.5 / 3.6, 14 / 4.8. 10, 16, 20: DIN 124, from
+  // memory (not checked against the standard): 16 / 6.5, 25 / 10, 32 / 13.
+  struct Row {
+    double d, dk, k;
+    const char* standard;
+  };
+  for (const Row& r : {Row{5, 8.8, 3, "DIN 660"}, Row{6, 10.5, 3.6, "DIN 660"}, Row{8, 14, 4.8, "DIN 660"},
+                       Row{10, 16, 6.5, "DIN 124"}, Row{16, 25, 10, "DIN 124"}, Row{20, 32, 13, "DIN 124"}}) {
+    SCOPED_TRACE(r.d);
+    const RivetSize s = round_head_rivet(r.d * mm);
+    EXPECT_NEAR(s.d, r.d * mm, 1e-12);
+    EXPECT_NEAR(s.dk, r.dk * mm, 1e-12);
+    EXPECT_NEAR(s.k, r.k * mm, 1e-12);
+    EXPECT_STREQ(s.standard, r.standard);
+  }
+}
+
+TEST(Rivets, EveryNominalOfTheJointSeriesIsTabled) {
+  // The joints' series (src/hardware.cpp kRivetSeries): 5, 6, 8, 10, 12, 14, 16, 20 mm; every
+  // head wider than its shank and lower than it is wide (a round head, not a pin head).
+  for (double d : {5.0, 6.0, 8.0, 10.0, 12.0, 14.0, 16.0, 20.0}) {
+    const RivetSize s = round_head_rivet(d * mm);
+    EXPECT_NEAR(s.d, d * mm, 1e-12) << d;
+    EXPECT_GT(s.dk, 1.5 * s.d) << d;
+    EXPECT_LT(s.k, s.dk / 2) << d;
+    EXPECT_TRUE(choose_rivet(d * mm, 10 * mm, RivetClosing::round).standard_size) << d;
+  }
+}
+
+TEST(Rivets, LengthIsClampPlusTheClosingAllowanceRoundedUpTheSeries) {
+  // The example's joints (examples/bin-hoist.toml): Ø6 rivets through tail and run of a 3 mm band,
+  // clamp 6 mm. Round closing head: 6 + 1.5 × 6 = 15 mm (allowance 1.5 d, common practice, from
+  // memory) → 16 mm, the next of DIN 660's lengths …, 14, 16, … (DIN 660:2012-01 mass table,
+  // fasten.it). Flush: 6 + 0.8 × 6 = 10.8 → 12 mm.
+  const RivetSet round = choose_rivet(6 * mm, 6 * mm, RivetClosing::round);
+  EXPECT_NEAR(round.allowance, 9 * mm, 1e-12);
+  EXPECT_NEAR(round.length, 16 * mm, 1e-12);
+  EXPECT_NEAR(round.closing_height(), 3.6 * mm, 1e-12);
+  EXPECT_EQ(round.designation(), "Round head rivet DIN 660 - 6 × 16 - St");
+  const RivetSet flush = choose_rivet(6 * mm, 6 * mm, RivetClosing::flush);
+  EXPECT_NEAR(flush.length, 12 * mm, 1e-12);
+  EXPECT_EQ(flush.closing_height(), 0);
+  EXPECT_EQ(flush.designation(), "Round head rivet DIN 660 - 6 × 12 - St, closed flush");
+  // Ø16 through 2 × 10 mm: 20 + 24 = 44 → 45 mm (series …, 42, 45, …, from memory), DIN 124.
+  EXPECT_EQ(choose_rivet(16 * mm, 20 * mm, RivetClosing::round).designation(),
+            "Round head rivet DIN 124 - 16 × 45 - St");
+  // Beyond the series (160 mm, from memory): 5 mm steps, marked special.
+  const RivetSet longest = choose_rivet(20 * mm, 150 * mm, RivetClosing::round);
+  EXPECT_NEAR(longest.length, 180 * mm, 1e-12);
+  EXPECT_FALSE(longest.standard_length);
+  EXPECT_NE(longest.designation().find("(special)"), std::string::npos);
+}
+
 }  // namespace
 }  // namespace bandforge::standard
