@@ -599,6 +599,9 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
       // simplified view (ISO 2162-1) whose coil lines the assembly sheet draws inside the outline.
       m.parts[spring].envelope = building("spring envelope", [&] { return make_rod(od / 2, 0, length); });
       m.parts[spring].display = m.parts[spring].envelope;
+      // The wire's volume from the same centreline the solid is built on (within 1e-5 of the
+      // solid's adaptive integral: tests/spring_solid_test.cpp).
+      m.parts[spring].known_volume = spring_volume_estimate(sd);
       b.instance(spring, "SPRING", along(from, lever_mid, {(to.x - from.x) / length, (to.y - from.y) / length}));
       touch("SPRING", "SEAT-LEVER");
       touch("SPRING", "SEAT-FRAME");

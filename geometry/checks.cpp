@@ -71,14 +71,9 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool inte
     const TopoDS_Shape& s = m.parts[i].shape;
     PartInfo& info = m.infos[i];
     GProp_GProps props;
-    if (m.parts[i].kind == PartKind::spring) {
-      // The coil's long B-spline faces need the adaptive integration: the default Gauss rule
-      // comes out 0.1 % low on them (geometry/spring_solid.hpp).
-      BRepGProp::VolumeProperties(s, props, 1e-7);
-    } else {
-      BRepGProp::VolumeProperties(s, props);
-    }
-    info.volume = props.Mass();
+    const bool known = m.parts[i].known_volume > 0;
+    BRepGProp::VolumeProperties(known ? m.parts[i].envelope : s, props);
+    info.volume = known ? m.parts[i].known_volume : props.Mass();
     info.mass = info.volume * 1e-9 * info.density;  // mm³ → m³
     // Centroid of the first instance, in assembly coordinates.
     for (const auto& in : m.instances) {

@@ -206,6 +206,9 @@ void build_outputs(const BuildCommand& cmd) {
     applied.interference = false;
     geom::BuildOptions released = applied;
     released.released = true;
+    // The phantom shows the lever and grip only: no validity or mass properties needed (the
+    // applied copy and the checked model below have them; `build --released` checks this state).
+    released.checks = false;
     const geom::BrakeModel shown = geom::build_brake(design, solution, applied);
     // A layout whose released state fails its check is drawn without the phantom lever.
     std::optional<geom::BrakeModel> phantom;
