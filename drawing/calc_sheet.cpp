@@ -980,7 +980,7 @@ Table mount_table(const Solution& s, UnitSystem u) {
     const WeightMount& w = m.weight;
     add_row(t, "Hanger top", point(w.hang, u), "lever's lower edge on the vertical through apply.at", "geometry of the lever");
     add_row(t, "Hanger rod", "Ø" + len(w.rod_diameter, u) + " × " + len(w.rod_length, u),
-            "≥ 12 mm, m·g/(πd²/4) ≤ 60 MPa; drop + block height", rule);
+            "≥ min(12 mm, lever thickness − 1 mm), m·g/(πd²/4) ≤ 60 MPa; drop + block height", rule);
     add_row(t, "Weight block", "Ø" + len(w.block_diameter, u) + " × " + len(w.block_height, u),
             "steel cylinder, height = Ø, bored for the rod; top max(20 mm, Ø/4) below the lever", rule);
     add_row(t, "Block + rod mass", qty(w.block_mass, Quantity::mass, u) + " + " + qty(w.rod_mass, Quantity::mass, u),
@@ -1129,8 +1129,8 @@ std::vector<Block> calculation_blocks(const Design& d, const Solution& s,
     // What bandforge added by itself, with the rules behind it (README "Generated hardware").
     std::vector<std::string> lines = hardware_summary(s.hardware, u);
     lines.push_back("Joints: the first of riveted-lap (rivet d = max(5 mm, 2t), edge 2d, pitch 3d; "
-                    "common practice), riveted-compact (ISO 1051 rivet, EN 1993-1-8 Table 3.3 least "
-                    "spacings) and welded-block (fillet welds at the slot mouth) that fits the run and "
+                    "common practice), riveted-compact (round-head rivet of the "
+                    "DIN 660 / DIN 124 series, EN 1993-1-8 Table 3.3 least spacings) and welded-block (fillet welds at the slot mouth) that fits the run and "
                     "passes its checks. Frame plates: S235 (EN 10025-2), one stock thickness, the least "
                     "that passes bore bearing 0.90 F_y and plate bending 0.60 F_y (single plate) or "
                     "cheek net section 0.45 F_y (two cheeks) (AISC ASD 1989, from memory).");

@@ -246,7 +246,7 @@ FlatPart band_blank(const Design& d, const Solution& s, const PartInfo& band) {
           " kN >= largest tension at this end " + num(j.tension / 1000, 2) + " kN" +
           (j.kind == JointKind::riveted_lap
                ? " (rule: d = max(5, 2t), edge 2d, pitch 3d, at least 2 rows; common practice, no source)"
-               : " (rivet from the ISO 1051 series, least spacings of EN 1993-1-8 Table 3.3)"));
+               : " (round-head rivet of the DIN 660 / DIN 124 series, least spacings of EN 1993-1-8 Table 3.3)"));
     } else {
       f.notes.push_back("  - end " + e + " " + num(ends[i].cut, 3) +
                         ": the strip ends in the slot of END-BLOCK-" + e + ", " + num(ends[i].cut, 2) +

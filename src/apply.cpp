@@ -354,6 +354,28 @@ ElementMount plan_mount(const Design& d, const Solution& s, const ApplyResult& r
                   "handle and the lever's pins)";
       return m;
     }
+    // Across the seat the lever's edge may come closer than on the axis (a slanting or rounded
+    // edge): the least distance behind the face over the seat's width, negative where the lever
+    // stands in front of it.
+    const Vec2 n{-u.y, u.x};
+    double least = edge;
+    for (int i = -10; i <= 10; ++i) {
+      const Vec2 p = ap.at + (m.lever_seat.diameter / 2 * i / 10.0) * n;
+      if (distance_to_plate(p, centres, half) <= 0) {
+        least = std::min(least, -along_to_edge(p, u, centres, half, reach, false));
+      } else {
+        const double e = along_to_edge(p, -1.0 * u, centres, half, reach, true);
+        if (e >= 0) least = std::min(least, e);
+      }
+    }
+    if (least < mount_rules::seat_bridge && edge >= mount_rules::seat_bridge) {
+      m.refusal = "the lever's edge comes within " + mm(std::max(0.0, least)) + " of the spring's "
+                  "seat face at apply.at = " + point_text(ap.at) + " (Ø" + mm(m.lever_seat.diameter) +
+                  " seat; the edge slants or rounds across it); the seat plate needs at least " +
+                  mm(mount_rules::seat_bridge) + ": move apply.at (and apply.seat with it) at least " +
+                  mm(mount_rules::seat_bridge - least) + " further from the lever along the axis";
+      return m;
+    }
     if (edge < mount_rules::seat_bridge) {
       m.refusal = "apply.at = " + point_text(ap.at) + " is " + mm(edge) + " from the lever's "
                   "edge along the spring's axis; the seat plate between them needs at least " +
@@ -391,7 +413,9 @@ ElementMount plan_mount(const Design& d, const Solution& s, const ApplyResult& r
   WeightMount& w = m.weight;
   w.hang = hang;
   const double rho = 7850.0;  // carbon steel [kg/m³]: common practice, no source
-  w.rod_diameter = std::max(rod_min, std::ceil(std::sqrt(4 * ap.mass * kGravity / (kPi * rod_stress)) * 1000 - 1e-9) / 1000);
+  // Within the lever's faces (1 mm less than its thickness), so that it passes under the grip.
+  w.rod_diameter = std::max(std::min(rod_min, d.lever.thickness - rod_inset),
+                            std::ceil(std::sqrt(4 * ap.mass * kGravity / (kPi * rod_stress)) * 1000 - 1e-9) / 1000);
   const double rod_area = kPi * w.rod_diameter * w.rod_diameter / 4;
   // Block height = diameter D, bored for the rod; drop = max(20 mm, D/4); block + rod = mass.
   // The block's top clears the lever over the block's whole width by the least plan clearance:

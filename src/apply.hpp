@@ -110,14 +110,15 @@ LeverMass lever_mass(const Design& design, const Solution& solution);
 /// Seat plate rules (common practice, no source): diameter OD + 2·max(5 mm, 0.1·OD), thickness
 /// the least of the series ≥ 0.1·OD, spigot ID − max(1 mm, 0.05·ID) across and min(2d, 0.2·L)
 /// high; a seat on the lever needs at least `seat_bridge` of plate between the spring's end and
-/// the lever's edge. Weight: rod ≥ 12 mm at ≤ 60 MPa tension, block height = diameter, block top
+/// the lever's edge. Weight: rod ≥ min(12 mm, lever thickness − 1 mm) at ≤ 60 MPa tension, block height = diameter, block top
 /// max(20 mm, D_w/4) below the lever.
 namespace mount_rules {
 inline constexpr double seat_rim_min = 0.005;      ///< [m]
 inline constexpr double seat_rim_fraction = 0.1;   ///< of the outer diameter
 inline constexpr double seat_series[] = {0.006, 0.008, 0.010, 0.012, 0.016, 0.020};  ///< [m]
 inline constexpr double seat_bridge = 0.003;       ///< [m]
-inline constexpr double rod_min = 0.012;           ///< [m]
+inline constexpr double rod_min = 0.012;           ///< [m], or the lever's thickness − rod_inset
+inline constexpr double rod_inset = 0.001;         ///< [m]
 inline constexpr double rod_stress = 60e6;         ///< [Pa]
 inline constexpr double drop_min = 0.020;          ///< [m]
 }  // namespace mount_rules

@@ -47,7 +47,8 @@ constexpr double kWeldShear = 0.30 * 482e6;
 // Stock plate thicknesses for brackets [m] (common practice, no source).
 constexpr double kPlateSeries[] = {0.005, 0.006, 0.008, 0.010, 0.012, 0.015, 0.020,
                                    0.025, 0.030, 0.035, 0.040, 0.050};
-// Solid rivet nominal diameters [m] (ISO 1051, from memory).
+// Solid rivet nominal diameters [m]: the round-head series of DIN 660 (5–8 mm) and DIN 124
+// (10–20 mm), src/standard_parts.cpp.
 constexpr double kRivetSeries[] = {0.005, 0.006, 0.008, 0.010, 0.012, 0.014, 0.016, 0.020};
 
 // ---- Plane geometry -------------------------------------------------------------------------

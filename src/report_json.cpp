@@ -81,7 +81,9 @@ json joint_block(const JointPlan& jp) {
   } else {
     j["rivets"] = {{"diameter_m", jp.rivet}, {"edge_m", jp.edge},     {"pitch_m", jp.pitch},
                    {"rows", jp.rows},        {"columns", jp.columns}, {"lap_m", jp.lap},
-                   {"capacity_N", jp.rivet_capacity}};
+                   {"capacity_N", jp.rivet_capacity},
+                   {"designation", jp.rivets.designation()}, {"length_m", jp.rivets.length},
+                   {"closing", jp.rivets.closing == standard::RivetClosing::round ? "round" : "flush"}};
   }
   return j;
 }

@@ -257,6 +257,23 @@ void applying(Out& o, const Solution& s) {
   o.row("  stroke", len(act.stroke) + " = " + len(act.travel) + " lift + " + len(act.margin) +
                         " reserve for the wear allowance");
   o.row("  force", o.q(act.force, Quantity::force) + " holding the lever released");
+  // What bandforge adds to carry the element (built by `build`).
+  const ElementMount& m = a.mount;
+  if (!m.present) return;
+  o.line(a.by == ApplyBy::spring ? "  Spring seats (bandforge adds them):" : "  Weight and hanger (bandforge adds them):");
+  if (a.by == ApplyBy::spring) {
+    for (const SeatPlan* seat : {&m.lever_seat, &m.frame_seat}) {
+      o.row(seat == &m.lever_seat ? "  on the lever" : "  on the frame",
+            "plate Ø" + len(seat->diameter) + " × " + len(seat->thickness) + " with spigot Ø" +
+                len(seat->spigot_diameter) + " × " + len(seat->spigot_height) + ", face at " + o.point(seat->face));
+    }
+  } else {
+    const WeightMount& w = m.weight;
+    o.row("  hanger", "rod Ø" + len(w.rod_diameter) + " × " + len(w.rod_length) + " from " + o.point(w.hang));
+    o.row("  block", "steel Ø" + len(w.block_diameter) + " × " + len(w.block_height) + ", " +
+                         o.q(w.block_mass, Quantity::mass) + " (+ rod " + o.q(w.rod_mass, Quantity::mass) + ")");
+  }
+  if (!m.refusal.empty()) o.row("  cannot build", m.refusal);
 }
 
 void checks(Out& o, const Solution& s) {

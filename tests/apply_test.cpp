@@ -452,6 +452,19 @@ TEST(ApplyMount, SpringEndInsideOrAgainstTheLeverIsRefusedWithWhereToPutIt) {
   EXPECT_NE(close.mount.refusal.find("at least 2.0 mm further"), std::string::npos) << close.mount.refusal;
 }
 
+TEST(ApplyMount, SpringTiltedOverASlantingEdgeIsRefusedAcrossTheSeatNotOnlyOnTheAxis) {
+  // Axis 20° off the lever's normal: 4 mm above the edge on the axis, but the seat's face dips
+  // (seat radius)·sin 20° below the edge plane at one side of the seat.
+  const double a = 20 * kPi / 180;
+  const std::string seat = "[\"" + std::to_string(250 + 160 * std::sin(a)) + " mm\", \"" +
+                           std::to_string(-226 + 160 * std::cos(a)) + " mm\"]";
+  const ApplyResult r = solve(read(kBase + "\n[apply]\nby = \"spring\"\nat = [\"250 mm\", \"-226 mm\"]\nseat = " +
+                                   seat + "\nwear_allowance = \"2 mm\"\n")).apply;
+  ASSERT_TRUE(r.spring.found) << r.refusal;
+  EXPECT_NE(r.mount.refusal.find("slants or rounds across it"), std::string::npos) << r.mount.refusal;
+  EXPECT_NE(r.mount.refusal.find("further from the lever along the axis"), std::string::npos);
+}
+
 TEST(ApplyMount, WeightBlockAndHangerTogetherWeighTheMass) {
   const ApplyResult a = solve(read(kBase + kWeight)).apply;
   const WeightMount& w = a.mount.weight;
@@ -460,9 +473,9 @@ TEST(ApplyMount, WeightBlockAndHangerTogetherWeighTheMass) {
   // apply.at is the handle point, inside the plate: the rod hangs from the lower edge below it.
   EXPECT_NEAR(w.hang.x, 0.600, 1e-12);
   EXPECT_NEAR(w.hang.y, -0.270, 1e-9);
-  // 30 kg pulls 294 N: Ø2.5 mm at 60 MPa, so the 12 mm least rod.
-  EXPECT_NEAR(w.rod_diameter, 0.012, 1e-12);
-  const double rod_area = kPi * 0.012 * 0.012 / 4, D = w.block_diameter;
+  // 30 kg pulls 294 N: Ø2.5 mm at 60 MPa, so the least rod, min(12 mm, 12 mm lever − 1 mm).
+  EXPECT_NEAR(w.rod_diameter, 0.011, 1e-12);
+  const double rod_area = kPi * 0.011 * 0.011 / 4, D = w.block_diameter;
   EXPECT_NEAR(w.block_height, D, 1e-12);
   EXPECT_NEAR(w.drop, std::max(0.020, D / 4), 1e-12);
   EXPECT_NEAR(w.rod_length, w.drop + D, 1e-12);

@@ -39,7 +39,31 @@ def point(p, inches):
     return f"[{fmt(p[0], inches)}, {fmt(p[1], inches)}]"
 
 
-def generate(rng, index):
+def plate_distance(p, centres, radius):
+    """Distance from p to the convex hull of `centres` grown by `radius` (negative inside)."""
+    pts = sorted(set(centres))
+    def cross(o, a, b):
+        return (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0])
+    hull = []
+    for seq in (pts, pts[::-1]):
+        part = []
+        for q in seq:
+            while len(part) >= 2 and cross(part[-2], part[-1], q) <= 0:
+                part.pop()
+            part.append(q)
+        hull += part[:-1]
+    def seg(a, b):
+        vx, vy = b[0] - a[0], b[1] - a[1]
+        l2 = vx * vx + vy * vy
+        f = 0.0 if l2 == 0 else max(0.0, min(1.0, ((p[0] - a[0]) * vx + (p[1] - a[1]) * vy) / l2))
+        return math.hypot(p[0] - a[0] - f * vx, p[1] - a[1] - f * vy)
+    edges = [(hull[i], hull[(i + 1) % len(hull)]) for i in range(len(hull))] or [(pts[0], pts[0])]
+    d = min(seg(a, b) for a, b in edges)
+    inside = len(hull) >= 3 and all(cross(a, b, p) >= 0 for a, b in edges)
+    return (-d if inside else d) - radius
+
+
+def generate(rng, index, seed=0):
     """One plausible layout as design-file text, and a one-line description."""
     D = rng.uniform(150, 1000)
     R = D / 2
@@ -164,14 +188,24 @@ allowable_stress = "120 MPa"
 [load]
 torque = "{torque:.1f} N*m"
 """
-    # How it is applied (drawn after the layout, so the layouts of a seed stay the same): by
+    # How it is applied: by
     # hand, or a spring or a weight somewhere along the lever's outer part, as a designer puts
     # them. The spring stands square to the lever, its lever end 8–30 mm off the lever's edge, its
     # seat 120–250 mm further; a designer who chose the side that releases the brake flips it
     # (one() does, on solve's message).
+    # A generator of its own, so that the layouts of a seed are the same with or without this.
+    rng = random.Random(f"apply-{seed}-{index}")
     how = rng.random()
     other = None
     t = rng.uniform(0.55, 1.0)
+    mass = rng.uniform(5, 60)
+    # A designer hangs the weight clear of the drum: its steel block (height = diameter) beside
+    # the drum or below it.
+    def weight_clears(p, m):
+        dw = (4 * m / (math.pi * 7850)) ** (1 / 3) * 1000
+        top = p[1] - lever_w / 2 - max(20, dw / 4)
+        r_out = R + lining_t + band_t + 10
+        return abs(p[0]) - dw / 2 > r_out or top < -r_out
     at = (pivot[0] + t * (handle[0] - pivot[0]), pivot[1] + t * (handle[1] - pivot[1]))
     if how < 0.25:
         ux, uy = handle[0] - pivot[0], handle[1] - pivot[1]
@@ -180,11 +214,23 @@ torque = "{torque:.1f} N*m"
         nx, ny = -uy / ul * side, ux / ul * side
         off = lever_w / 2 + rng.uniform(8, 30)
         length = rng.uniform(120, 250)
+        # The spring's end clear of the lever plate by 5 mm over a seat up to 120 mm across: a
+        # designer stands it off the plate where the plate slants or rounds (its pins and ends).
+        centres = [handle, pivot] + [q for q, mnt in ((pa, end_a_mount), (pb, end_b_mount)) if mnt == "lever"]
+        def seated(k, o):
+            return all(plate_distance((at[0] + k * o * nx + q * ny, at[1] + k * o * ny - q * nx), centres,
+                                      lever_w / 2) >= 5 for q in range(-60, 61, 10))
+        offs = {}
+        for k in (1, -1):
+            o = off
+            while not seated(k, o) and o < off + 300:
+                o += 2
+            offs[k] = o
         # A designer keeps the spring and its seats off the drum: its axis at least the band's
         # outer radius + 60 mm from the drum's centre (room for the coils and seats, common
         # practice, no source), shortening it (down to 80 mm) on the drum's side.
         def clear(k, length):
-            ax, ay = at[0] + k * off * nx, at[1] + k * off * ny
+            ax, ay = at[0] + k * offs[k] * nx, at[1] + k * offs[k] * ny
             bx, by = ax + k * length * nx, ay + k * length * ny
             vx, vy = bx - ax, by - ay
             f = max(0.0, min(1.0, -(ax * vx + ay * vy) / (vx * vx + vy * vy)))
@@ -195,7 +241,7 @@ torque = "{torque:.1f} N*m"
                 l *= 0.85
             return l if l >= 80 else None
         def spring(k, l):
-            s_at = (at[0] + k * off * nx, at[1] + k * off * ny)
+            s_at = (at[0] + k * offs[k] * nx, at[1] + k * offs[k] * ny)
             seat = (s_at[0] + k * l * nx, s_at[1] + k * l * ny)
             return f"""
 [apply]
@@ -208,12 +254,12 @@ seat = {point(seat, inches)}
             other = text + spring(*sides[1]) if len(sides) == 2 else None
             text += spring(*sides[0])
             kind += ", spring"
-    elif how < 0.35:
+    elif how < 0.35 and weight_clears(at, mass):
         text += f"""
 [apply]
 by = "weight"
 at = {point(at, inches)}
-mass = "{rng.uniform(5, 60):.1f} kg"
+mass = "{mass:.1f} kg"
 """
         kind += ", weight"
     desc = (f"{kind}, D {D:.0f} mm, wrap {math.degrees(wrap):.0f}°, runs {l_l:.0f}/{l_r:.0f} mm, "
@@ -264,7 +310,7 @@ def main():
     rng = random.Random(a.seed)
     jobs = []
     for i in range(1, a.count + 1):
-        number, text, desc, other = generate(rng, i)
+        number, text, desc, other = generate(rng, i, a.seed)
         jobs.append((a.bandforge, a.work, number, text, desc, other, a.keep))
     with concurrent.futures.ThreadPoolExecutor(max_workers=a.jobs) as pool:
         results = list(pool.map(one, jobs))

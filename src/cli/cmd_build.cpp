@@ -233,7 +233,7 @@ void build_outputs(const BuildCommand& cmd) {
   drawing_done.get();  // rethrows the drawing's error, if any
   // One file per sheet: OUT/sheets/<number>-01.pdf … in the order of the set.
   for (std::size_t i = 0; i < sheet_pdfs.size(); ++i) {
-    char n[16];
+    char n[32];
     std::snprintf(n, sizeof n, "-%02zu.pdf", i + 1);
     write_bytes(staging.path("sheets/" + stem + n), sheet_pdfs[i]);
   }
