@@ -386,6 +386,11 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   b.instance(grip, "GRIP",
              compose(lever_place, translation(rel(handle), lever_t / 2)));
   touch("GRIP", "LEVER");
+  if (options.lever_only) {
+    m.intended = intended;
+    if (options.checks) run_checks(m, intended, options.interference, options.validity);
+    return BrakeModel(std::move(impl));
+  }
 
   // Frame brackets (src/hardware.hpp). A lug for one pin: part "ANCHOR", hole at the origin, lug
   // along −y, plate centred on z = 0, one instance per pin; a bracket shared by several pins is
@@ -642,7 +647,7 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   m.intended = intended;
   if (!options.checks) return BrakeModel(std::move(impl));
   try {
-    run_checks(m, intended, options.interference);
+    run_checks(m, intended, options.interference, options.validity);
   } catch (const Standard_Failure& e) {
     throw BuildError(std::string("while checking the assembly: ") + e.GetMessageString());
   }

@@ -10,7 +10,9 @@ using IntendedContacts = std::set<std::pair<std::string, std::string>>;
 
 /// Validity, mass properties and pairwise interference/clearance of every instance; fills
 /// m.valid, m.infos[*].volume/mass/centroid and m.contacts.
-void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool interference);
+/// `validity` false skips BRepCheck_Analyzer (solid_ok then says one solid of positive volume).
+void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool interference,
+                bool validity = true);
 
 /// Throws BuildError naming the first invalid solid, or every failing pair of parts.
 void reject_failures(const BrakeModel::Impl& m);

@@ -64,6 +64,12 @@ struct BuildOptions {
   /// With checks: also the pairwise interference and clearance checks. false keeps validity
   /// and mass properties only (the drawing's own copy of a model already checked).
   bool interference = true;
+  /// With checks: BRepCheck_Analyzer on every solid. false for the drawing's own copy of a
+  /// model that the command builds and checks in full beside it.
+  bool validity = true;
+  /// Stop after the lever and its grip (no brackets, pins, rivets or applying element): the
+  /// drawing's phantom of the released lever, which shows those two only.
+  bool lever_only = false;
 };
 
 /// While any QuietOcct is alive, OpenCASCADE's messages go to stderr and only at failure level,

@@ -61,7 +61,8 @@ double common_volume(const TopoDS_Shape& a, const TopoDS_Shape& b) {
 
 }  // namespace
 
-void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool interference) {
+void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool interference,
+                bool validity) {
   // One thread on purpose: on two shared cores, OCCT's thread pool made the checks slower and
   // less predictable (measured, geometry/README.md), and sequential checks need no care about
   // OCCT's thread safety.
@@ -83,7 +84,7 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool inte
       break;
     }
     // One closed solid, valid, with material inside (an inside-out solid has negative volume).
-    m.solid_ok[i] = solid_count(s) == 1 && BRepCheck_Analyzer(s).IsValid() && info.volume > 0;
+    m.solid_ok[i] = solid_count(s) == 1 && (!validity || BRepCheck_Analyzer(s).IsValid()) && info.volume > 0;
     m.valid = m.valid && m.solid_ok[i];
   }
   if (!interference) return;

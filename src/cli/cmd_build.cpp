@@ -204,11 +204,13 @@ void build_outputs(const BuildCommand& cmd) {
   std::future<void> drawing_done = std::async(std::launch::async, [&] {
     geom::BuildOptions applied;
     applied.interference = false;
+    applied.validity = false;  // the model below is validated; this copy gives masses and views
     geom::BuildOptions released = applied;
     released.released = true;
     // The phantom shows the lever and grip only: no validity or mass properties needed (the
     // applied copy and the checked model below have them; `build --released` checks this state).
     released.checks = false;
+    released.lever_only = true;
     const geom::BrakeModel shown = geom::build_brake(design, solution, applied);
     // A layout whose released state fails its check is drawn without the phantom lever.
     std::optional<geom::BrakeModel> phantom;

@@ -30,6 +30,7 @@ geom::BuildOptions released_options() {
   geom::BuildOptions o;
   o.released = true;
   o.checks = false;
+  o.lever_only = true;  // as `build` draws the phantom (src/cli/cmd_build.cpp)
   return o;
 }
 
