@@ -165,6 +165,14 @@ TEST(BandSolid, VolumeIsThicknessTimesWidthTimesCentrelineLengthPlusTheEyesAndTa
   EXPECT_NEAR(part(x.model, "BAND").volume, expected, 1e-7 * expected);
 }
 
+// The fab pack's band blank, or nullptr.
+const FlatPart* band_blank(const FabPack& pack) {
+  for (const FlatPart& f : pack.parts) {
+    if (f.name == "BAND-BLANK") return &f;
+  }
+  return nullptr;
+}
+
 TEST(BandSolid, VolumeAgainstTheCutListsDevelopedLength) {
   // The band blank (fab pack) is developed on the neutral axis: centreline + per riveted end
   // (2π − 1)ρ_n + lap, ρ_n = pin radius + t/2. The solid's eye is a ring (area 2πρ_n·t exactly)
@@ -175,10 +183,7 @@ TEST(BandSolid, VolumeAgainstTheCutListsDevelopedLength) {
   // of 361 cm³: 0.17 %); the teardrop a real eye makes is not modelled.
   const Built x = build(read_design_file(kExample));
   const FabPack pack = make_fab_pack(x.design, x.solution, x.model);
-  const FlatPart* blank = nullptr;
-  for (const FlatPart& f : pack.parts) {
-    if (f.name == "BAND-BLANK") blank = &f;
-  }
+  const FlatPart* blank = band_blank(pack);
   ASSERT_NE(blank, nullptr);
   const double h = t / 2, R = d_pin / 2 + t, rho_n = d_pin / 2 + h;
   auto F = [&](double y) { return (y * std::sqrt(R * R - y * y) + R * R * std::asin(y / R)) / 2; };
@@ -283,10 +288,7 @@ TEST(Rivets, SitOnTheBandBlanksHolesMappedOntoTheRun) {
   // the tail's outside face, 3h outside the run's centreline, at z = band back + y.
   const Built x = build(read_design_file(kExample));
   const FabPack pack = make_fab_pack(x.design, x.solution, x.model);
-  const FlatPart* blank = nullptr;
-  for (const FlatPart& f : pack.parts) {
-    if (f.name == "BAND-BLANK") blank = &f;
-  }
+  const FlatPart* blank = band_blank(pack);
   ASSERT_NE(blank, nullptr);
   ASSERT_GE(blank->bend_lines.size(), 3u);
   const double b2 = blank->bend_lines[1].x1, b3 = blank->bend_lines[2].x1;
