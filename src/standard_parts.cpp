@@ -88,14 +88,18 @@ const PinRow& pin_row(double nominal) {
   return kPins[std::size(kPins) - 1];
 }
 
+/// The nominal diameters of a table's rows [m].
+template <class Row, std::size_t N>
+std::vector<double> nominals(const Row (&rows)[N]) {
+  std::vector<double> out;
+  for (const Row& r : rows) out.push_back(r.d * mm);
+  return out;
+}
+
 }  // namespace
 
 const std::vector<double>& clevis_pin_series() {
-  static const std::vector<double> s = [] {
-    std::vector<double> out;
-    for (const PinRow& r : kPins) out.push_back(r.d * mm);
-    return out;
-  }();
+  static const std::vector<double> s = nominals(kPins);
   return s;
 }
 
@@ -167,11 +171,7 @@ std::string PinSet::split_designation() const {
 }
 
 const std::vector<double>& rivet_series() {
-  static const std::vector<double> s = [] {
-    std::vector<double> out;
-    for (const RivetRow& r : kRivets) out.push_back(r.d * mm);
-    return out;
-  }();
+  static const std::vector<double> s = nominals(kRivets);
   return s;
 }
 
