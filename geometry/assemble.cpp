@@ -304,6 +304,18 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     touch(name, "BAND");
   }
 
+  // Bought parts (rivets, pins, washers, split pins, sleeves): one part per name.
+  std::map<std::string, std::size_t> bought;  // part name → part
+  auto part_once = [&](PartKind kind, const std::string& name, const std::string& designation,
+                       Rgb colour, const std::function<TopoDS_Shape()>& make) {
+    auto it = bought.find(name);
+    if (it != bought.end()) return it->second;
+    const std::size_t part = b.part(kind, name, "steel", steel_density, colour, building(name, make));
+    m.infos[part].designation = designation;
+    bought.emplace(name, part);
+    return part;
+  };
+
   // Joint rivets (src/hardware.hpp JointPlan::rivets, rivet_at, across): one part per size,
   // length and closing, one instance per rivet, "RIVET-A-1"… row by row from the tail's free
   // end. Part z runs from the tail's outside face (the manufactured head's underside) through
@@ -312,7 +324,6 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   // be: the band solid has no rivet holes (their 2·16 cylinders would cost a boolean and the
   // views their intersection curves), the overlap is an intended contact whose boolean the
   // checks skip (geometry/checks.cpp).
-  std::map<std::string, std::size_t> rivet_parts;
   for (bool a : {true, false}) {
     const JointPlan& j = a ? hw.joint_a : hw.joint_b;
     if (j.kind == JointKind::welded_block) continue;
@@ -321,18 +332,15 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     const bool flush = rs.closing == standard::RivetClosing::flush;
     const std::string name = "RIVET-" + num(rs.size.d * mm_per_m) + "x" + num(rs.length * mm_per_m) +
                              (flush ? "-FLUSH" : "");
-    auto it = rivet_parts.find(name);
-    if (it == rivet_parts.end()) {
-      const RivetDims rd{rs.size.d * mm_per_m, rs.size.dk * mm_per_m, rs.size.k * mm_per_m,
-                         2 * band_t, rs.closing_height() * mm_per_m};
-      it = rivet_parts.emplace(name, b.part(PartKind::rivet, name, "steel", steel_density, pin_colour,
-                                            building("rivet " + name, [&] { return make_rivet(rd); })))
-               .first;
-      m.infos[it->second].designation = rs.designation();
-      // The views show the rivet as the box round its heads (d_k square, head to head): the
-      // exact caps cost the example's three hidden-line views ~0.4 s, a cylinder ~0.2 s
-      // (measured), for 2 mm of detail at their scale. The STEP and the checks keep the solid.
-      m.parts[it->second].display = building("rivet " + name, [&] {
+    const RivetDims rd{rs.size.d * mm_per_m, rs.size.dk * mm_per_m, rs.size.k * mm_per_m,
+                       2 * band_t, rs.closing_height() * mm_per_m};
+    const std::size_t rivet = part_once(PartKind::rivet, name, rs.designation(), pin_colour,
+                                        [&] { return make_rivet(rd); });
+    // The views show the rivet as the box round its heads (d_k square, head to head): the
+    // exact caps cost the example's three hidden-line views ~0.4 s, a cylinder ~0.2 s
+    // (measured), for 2 mm of detail at their scale. The STEP and the checks keep the solid.
+    if (m.parts[rivet].display.IsNull()) {
+      m.parts[rivet].display = building("rivet " + name, [&] {
         return BRepPrimAPI_MakeBox(gp_Pnt(-rd.dk / 2, -rd.dk / 2, -rd.k), rd.dk, rd.dk,
                                    rd.k + rd.clamp + rd.closing).Shape();
       });
@@ -352,7 +360,7 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
         gp_Trsf place;  // columns: part x → along the run, y → ±z, z → toward the drum
         place.SetValues(u.x, 0, -r.x, o.x, u.y, 0, -r.y, o.y, 0, yz, 0, ax.band_back + across * mm_per_m);
         const std::string id = "RIVET-" + std::string(a ? "A" : "B") + "-" + std::to_string(++n);
-        b.instance(it->second, id, place);
+        b.instance(rivet, id, place);
         touch(id, "BAND");
       }
     }
@@ -438,16 +446,6 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   // length, the head's underside at z = 0 in part coordinates; ISO 8738 washers and ISO 1234
   // split pins on the tail; spacer sleeves where the plan stands an end off. Each pin's parts
   // move with it.
-  std::map<std::string, std::size_t> bought;  // part name → part
-  auto part_once = [&](PartKind kind, const std::string& name, const std::string& designation,
-                       Rgb colour, const std::function<TopoDS_Shape()>& make) {
-    auto it = bought.find(name);
-    if (it != bought.end()) return it->second;
-    const std::size_t part = b.part(kind, name, "steel", steel_density, colour, building(name, make));
-    m.infos[part].designation = designation;
-    bought.emplace(name, part);
-    return part;
-  };
   for (const PinPlan& s : hw.pins) {
     const standard::PinSet& set = s.set;
     const double d = set.pin.d * mm_per_m;
