@@ -50,7 +50,7 @@ TopoDS_Shape make_spring(const SpringDims& s);
 /// cuts the circular cross-section (radius r = d/2) at the distance h = z/cos α from its centre,
 /// removing the segment r²·acos(h/r) − h·√(r² − h²), integrated along the centreline's length.
 /// A tube's volume is exactly its section × centreline length (Pappus), so the solid should
-/// match this up to the surface approximation (~1e-5 relative).
+/// match this up to the surface approximation (2e-5 relative at 5e-4 mm from the tube).
 double spring_volume_estimate(const SpringDims& s);
 
 }  // namespace bandforge::geom

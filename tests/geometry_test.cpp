@@ -885,7 +885,7 @@ TEST(ApplyElement, SpringSolidHasTheWireVolumeAndSitsOnBothSeats) {
   const double wd = sp.wire_diameter * 1000, Dm = sp.mean_diameter * 1000, Nt = sp.total_coils;
   // Wire volume π²·D·d²·N_t/4 (section π d²/4 × wire length ≈ π D per coil; the issue's ±2 %:
   // the grinding of the two ends takes about 2 % off, the helix's pitch adds about 0.2 %), and
-  // within 1e-4 of the same centreline's integral less the ground-off segments
+  // within 5e-5 of the same centreline's integral less the ground-off segments
   // (spring_volume_estimate, derived in tests/spring_solid_test.cpp).
   // The solid's volume by adaptive integration (the Gauss rule is fooled by the coil's long
   // B-spline faces); the parts list's figure is the centreline integral (Part::known_volume).
@@ -894,7 +894,9 @@ TEST(ApplyElement, SpringSolidHasTheWireVolumeAndSitsOnBothSeats) {
   const double wire_volume = pi * pi * Dm * wd * wd * Nt / 4;
   EXPECT_NEAR(g.Mass(), wire_volume, 0.02 * wire_volume);
   SpringDims sd{wd, Dm, Nt, sp.active_coils, sp.ends, sp.applied.length * 1000};
-  EXPECT_NEAR(g.Mass(), spring_volume_estimate(sd), 1e-5 * wire_volume);
+  // The surface lies within 5e-4 mm inside the true tube between its Hermite knots (1.8e-5 of
+  // the volume, spring_solid_test): 5e-5.
+  EXPECT_NEAR(g.Mass(), spring_volume_estimate(sd), 5e-5 * wire_volume);
   EXPECT_NEAR(part(x.model, "SPRING").volume, spring_volume_estimate(sd), 1e-9 * wire_volume);
   // Its mass against the spring specification's wire mass ρ·(π d²/4)·(π D N_t) (src/spring.cpp):
   // the same ±2 %.

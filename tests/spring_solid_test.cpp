@@ -258,6 +258,61 @@ TEST(UngroundEnds, PlainVolumeIsTheHelix) {
   EXPECT_NEAR(volume(make_spring(s)), expected, 1e-4 * expected);
 }
 
+// The lateral surface is an approximation of the tube (cubic Hermite spans in θ, exact circles
+// across the wire): every point of it must lie within 1e-3 mm of the true tube, i.e. at r from
+// the helix. 1e-3 mm is the modelling tolerance we hold the spring to: 1/30 of the ±0.03 mm
+// diameter tolerance of 5–6 mm spring wire (EN 10270-2, from memory). Plain ends have one pitch,
+// so the centreline is the helix (R cos θ, R sin θ, z₀ + pθ/2π) with p and z₀ as above.
+TEST(UngroundEnds, LateralSurfaceLiesOnTheTube) {
+  struct Case {
+    double d, D, na, L;
+  };
+  // The spring, the bin-hoist example's, and a small and a large one.
+  for (const Case c : {Case{6, 45, 8, 100}, Case{5, 59.5, 11.5, 150}, Case{2, 12, 10, 40}, Case{12, 120, 6, 200}}) {
+    const SpringDims s = spring(SpringEnds::plain, c.d, c.D, c.na, c.L);
+    const double Rc = c.D / 2, rc = c.d / 2;
+    double p = (c.L - c.d) / s.total_coils;
+    for (int i = 0; i < 20; ++i) p = (c.L - 2 * rc * pi * c.D / std::hypot(pi * c.D, p)) / s.total_coils;
+    const double z0 = rc * pi * c.D / std::hypot(pi * c.D, p);
+    const double k = p / (2 * pi);
+    const TopoDS_Shape shape = make_spring(s);
+    double worst = 0;
+    int lateral = 0, samples = 0;
+    for (TopExp_Explorer e(shape, TopAbs_FACE); e.More(); e.Next()) {
+      const BRepAdaptor_Surface a(TopoDS::Face(e.Current()), false);
+      if (a.GetType() != GeomAbs_BSplineSurface) continue;
+      ++lateral;
+      const int nu = 64 * static_cast<int>(std::ceil(s.total_coils)), nv = 16;
+      for (int i = 0; i <= nu; ++i) {
+        const double u = a.FirstUParameter() + (a.LastUParameter() - a.FirstUParameter()) * i / nu;
+        for (int j = 0; j < nv; ++j) {
+          const double v = a.FirstVParameter() + (a.LastVParameter() - a.FirstVParameter()) * j / nv;
+          const gp_Vec q(a.Value(u, v).XYZ());
+          // Nearest centreline point: Newton on (q − C(θ))·C'(θ) = 0 from θ = u.
+          double th = u;
+          for (int it = 0; it < 30; ++it) {
+            const gp_Vec cc(Rc * std::cos(th), Rc * std::sin(th), z0 + k * th);
+            const gp_Vec c1(-Rc * std::sin(th), Rc * std::cos(th), k);
+            const gp_Vec c2(-Rc * std::cos(th), -Rc * std::sin(th), 0);
+            const gp_Vec w = q - cc;
+            const double step = w.Dot(c1) / (-c1.Dot(c1) + w.Dot(c2));
+            th -= step;
+            if (std::abs(step) < 1e-13) break;
+          }
+          const gp_Vec cc(Rc * std::cos(th), Rc * std::sin(th), z0 + k * th);
+          worst = std::max(worst, std::abs((q - cc).Magnitude() - rc));
+          ++samples;
+        }
+      }
+    }
+    EXPECT_EQ(lateral, 1);
+    EXPECT_GT(samples, 3000);
+    EXPECT_LT(worst, 1e-3) << "d " << c.d << " D " << c.D;
+    std::cout << "[ surface  ] plain d " << c.d << " D " << c.D << ": " << samples << " points, farthest "
+              << worst << " mm from the tube\n";
+  }
+}
+
 TEST(Limits, LengthAtOrBelowSolidLengthThrows) {
   // Squared-ground, N_t = 10: L_s = d·N_t = 60 mm (Table 10-1). At L_s the pitch is d: no clearance.
   EXPECT_THROW(make_spring(spring(SpringEnds::squared_ground, d, D, Na, 59)), std::invalid_argument);

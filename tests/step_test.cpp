@@ -207,9 +207,10 @@ TEST(StepExport, RereadGivesNamesInstancesColoursUnitsAndVolumes) {
     EXPECT_NEAR(t.Y(), o.y, 1e-9);
     EXPECT_NEAR(t.Z(), o.z, 1e-9);
     // Volume of the re-read solid, mm³.
-    // The spring's volume is its construction's centreline integral (Part::known_volume), which
-    // the solid's adaptive integral meets to 1e-5 (tests/spring_solid_test.cpp).
-    EXPECT_NEAR(volume(shapes->GetShape(part)), info.volume, (pname == "SPRING" ? 1e-5 : 1e-6) * info.volume);
+    // The spring's volume is its construction's centreline integral (Part::known_volume); the
+    // solid's surface lies within 5e-4 mm inside the true tube between its Hermite knots, which
+    // takes 1.8e-5 off the volume (spring_solid_test ValidOneSolidWithTheWireVolume): 5e-5.
+    EXPECT_NEAR(volume(shapes->GetShape(part)), info.volume, (pname == "SPRING" ? 5e-5 : 1e-6) * info.volume);
     // Colour: OCCT reads it back as 32-bit floats, so compare to float precision here; the
     // exact decimals are checked in the file text below.
     Quantity_Color c;
@@ -321,7 +322,8 @@ TEST(StepExport, GeneratedHardwareRereadsWithNamesAndVolumes) {
       for (const std::string& in : p.instance_names) {
         ++instances;
         ASSERT_TRUE(reread.count(in)) << in;
-        EXPECT_NEAR(reread[in], p.volume, (p.name == "SPRING" ? 1e-5 : 1e-6) * p.volume) << in;
+        // The spring: its surface approximation, as above.
+        EXPECT_NEAR(reread[in], p.volume, (p.name == "SPRING" ? 5e-5 : 1e-6) * p.volume) << in;
       }
     }
     EXPECT_EQ(reread.size(), instances);
