@@ -89,7 +89,10 @@ class Builder {
 
   std::size_t part(PartKind kind, const std::string& name, const std::string& material,
                    double density, Rgb colour, const TopoDS_Shape& shape) {
-    m_.parts.push_back({kind, shape, TopoDS_Shape(), TopoDS_Shape()});
+    BrakeModel::Impl::Part p;
+    p.kind = kind;
+    p.shape = shape;
+    m_.parts.push_back(p);
     PartInfo info;
     info.name = name;
     info.material = material;
@@ -340,6 +343,9 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     // exact caps cost the example's three hidden-line views ~0.4 s, a cylinder ~0.2 s
     // (measured), for 2 mm of detail at their scale. The STEP and the checks keep the solid.
     if (m.parts[rivet].display.IsNull()) {
+      m.parts[rivet].axis_from = gp_Pnt(0, 0, -rd.k);
+      m.parts[rivet].axis_to = gp_Pnt(0, 0, rd.clamp + rd.closing);
+      m.parts[rivet].bound_radius = std::max(rd.dk, rd.d) / 2;
       m.parts[rivet].display = building("rivet " + name, [&] {
         return BRepPrimAPI_MakeBox(gp_Pnt(-rd.dk / 2, -rd.dk / 2, -rd.k), rd.dk, rd.dk,
                                    rd.k + rd.clamp + rd.closing).Shape();
@@ -450,11 +456,11 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     const standard::PinSet& set = s.set;
     const double d = set.pin.d * mm_per_m;
     const std::string size = num(d) + "x" + num(set.length * mm_per_m);
+    const ClevisPinDims pin_dims{d, set.pin.dk * mm_per_m, set.pin.k * mm_per_m, set.length * mm_per_m,
+                                 set.pin.d1 * mm_per_m, set.hole_at * mm_per_m};
     const std::size_t pin_part = part_once(
-        PartKind::pin, "CLEVIS-PIN-" + size, set.pin_designation(), pin_colour, [&] {
-          return make_clevis_pin({d, set.pin.dk * mm_per_m, set.pin.k * mm_per_m, set.length * mm_per_m,
-                                  set.pin.d1 * mm_per_m, set.hole_at * mm_per_m});
-        });
+        PartKind::pin, "CLEVIS-PIN-" + size, set.pin_designation(), pin_colour,
+        [&] { return make_clevis_pin(pin_dims, !options.for_views); });
     const std::size_t washer_part = part_once(
         PartKind::washer, "WASHER-" + num(d), set.washer_designation(), pin_colour, [&] {
           return make_ring(set.washer.d1 * mm_per_m, set.washer.d2 * mm_per_m, 0, set.washer.h * mm_per_m);
@@ -484,11 +490,16 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
     const std::string name = "PIN-" + s.id;
     // The drawing shows the pin without its hole and the split pin by its eye (Part::display).
     if (m.parts[pin_part].display.IsNull()) {
-      m.parts[pin_part].display = building("pin " + name, [&] {
-        return make_clevis_pin({d, set.pin.dk * mm_per_m, set.pin.k * mm_per_m, set.length * mm_per_m,
-                                set.pin.d1 * mm_per_m, set.hole_at * mm_per_m},
-                               false);
-      });
+      m.parts[pin_part].display = options.for_views ? m.parts[pin_part].shape
+                                                    : building("pin " + name, [&] {
+                                                        return make_clevis_pin(pin_dims, false);
+                                                      });
+      m.parts[pin_part].axis_from = gp_Pnt(0, 0, -pin_dims.k);
+      m.parts[pin_part].axis_to = gp_Pnt(0, 0, pin_dims.length);
+      m.parts[pin_part].bound_radius = std::max(pin_dims.dk, pin_dims.d) / 2;
+      const AxialMass pm = clevis_pin_mass(pin_dims);
+      m.parts[pin_part].known_volume = pm.volume;
+      m.parts[pin_part].known_centroid = gp_Pnt(0, 0, pm.z);
     }
     if (m.parts[split_part].display.IsNull()) {
       m.parts[split_part].display = building("split pin " + name, [&] {
@@ -594,17 +605,20 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
       sd.ends = sp.ends;
       sd.length = length;
       // The material column says "spring steel"; the wire is named in the specification.
-      const std::size_t spring = b.part(PartKind::spring, "SPRING", "spring steel", steel_density,
-                                        spring_colour, building("spring", [&] { return make_spring(sd); }));
-      m.infos[spring].designation = spring_designation(sp);
       const double od = sp.outer_diameter * mm_per_m;
       // Clearances are measured to the coils' outer cylinder, and the views project it: a
       // simplified view (ISO 2162-1) whose coil lines the assembly sheet draws inside the outline.
-      m.parts[spring].envelope = building("spring envelope", [&] { return make_rod(od / 2, 0, length); });
-      m.parts[spring].display = m.parts[spring].envelope;
-      // The wire's volume from the same centreline the solid is built on (within 1e-5 of the
-      // solid's adaptive integral: tests/spring_solid_test.cpp).
+      const TopoDS_Shape outline = building("spring envelope", [&] { return make_rod(od / 2, 0, length); });
+      const std::size_t spring =
+          b.part(PartKind::spring, "SPRING", "spring steel", steel_density, spring_colour,
+                 options.for_views ? outline : building("spring", [&] { return make_spring(sd); }));
+      m.infos[spring].designation = spring_designation(sp);
+      m.parts[spring].envelope = outline;
+      m.parts[spring].display = outline;
+      // The wire's volume from the same centreline the solid is built on (within 2e-5 of the
+      // solid's adaptive integral: tests/spring_solid_test.cpp), its centroid the envelope's.
       m.parts[spring].known_volume = spring_volume_estimate(sd);
+      m.parts[spring].known_centroid = gp_Pnt(0, 0, length / 2);
       b.instance(spring, "SPRING", along(from, lever_mid, {(to.x - from.x) / length, (to.y - from.y) / length}));
       touch("SPRING", "SEAT-LEVER");
       touch("SPRING", "SEAT-FRAME");
@@ -643,14 +657,19 @@ BrakeModel build_brake(const Design& design, const Solution& solution,
   }
 
   m.intended = intended;
-  if (!options.checks) return BrakeModel(std::move(impl));
+  BrakeModel model(std::move(impl));
+  if (options.checks) check_model(model, options);
+  return model;
+}
+
+void check_model(BrakeModel& model, const BuildOptions& options) {
+  BrakeModel::Impl& m = model.impl();
   try {
-    run_checks(m, intended, options.interference, options.validity);
+    run_checks(m, m.intended, options.interference, options.validity);
   } catch (const Standard_Failure& e) {
     throw BuildError(std::string("while checking the assembly: ") + e.GetMessageString());
   }
   if (options.reject_failures) reject_failures(m);
-  return BrakeModel(std::move(impl));
 }
 
 }  // namespace bandforge::geom

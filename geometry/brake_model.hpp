@@ -47,8 +47,9 @@ struct ContactCheck {
   bool ok = true;
   /// Smallest distance between the two [mm] for parts that must stay clear; −1 when not
   /// measured (intended contacts, whose distance is zero by design). Measured to the drum's
-  /// outer cylinder (Ø D × face width), and from the bounding boxes when those alone keep the
-  /// parts apart: both can only understate the clearance.
+  /// outer cylinder (Ø D × face width), from the bounding boxes when those alone keep the parts
+  /// apart, and between the bounding capsules of round parts (pins, rivets) when those alone
+  /// keep them apart: all can only understate the clearance.
   double distance = -1;
   double min_distance = 0;   ///< required clearance for parts that must stay clear [mm]
 };
@@ -70,6 +71,12 @@ struct BuildOptions {
   /// Stop after the lever and its grip (no brackets, pins, rivets or applying element): the
   /// drawing's phantom of the released lever, which shows those two only.
   bool lever_only = false;
+  /// The drawing's copy: every part as the views and detail sheets show it, the clevis pins
+  /// without their split-pin holes and the spring as its outer cylinder (their booleans and
+  /// B-spline faces are two thirds of the solids' time). Their masses come from their
+  /// dimensions as in every model (Part::known_volume), so the lists agree with the checked
+  /// model; such a copy is not for export or interference checks.
+  bool for_views = false;
 };
 
 /// While any QuietOcct is alive, OpenCASCADE's messages go to stderr and only at failure level,
@@ -107,6 +114,12 @@ class BrakeModel {
 /// Builds the solids where the mechanics put them. Throws BuildError (exit 3) naming the part
 /// and dimension when a part cannot be made; never lets an OCCT exception escape.
 BrakeModel build_brake(const Design& design, const Solution& solution, const BuildOptions& options);
+
+/// The checks of a model built with `checks` off (validity, mass properties and, per `options`,
+/// interference), then, with options.reject_failures, the BuildError build_brake would throw.
+/// Lets a caller start work on the solids (the STEP export, in a child process) before the
+/// checks run.
+void check_model(BrakeModel& model, const BuildOptions& options);
 
 /// Writes an AP214 STEP assembly to `path` (reproducible bytes). Throws IoError / BuildError.
 void write_step(const BrakeModel& model, const Design& design, const std::string& path);

@@ -59,6 +59,37 @@ double common_volume(const TopoDS_Shape& a, const TopoDS_Shape& b) {
   return r.IsNull() || solid_count(r) == 0 ? 0.0 : volume_of(r);
 }
 
+// Smallest distance between the segments p0–p1 and q0–q1 (closest points of two segments,
+// clamped to both; C. Ericson, Real-Time Collision Detection, 2005, §5.1.9, from memory).
+double segment_distance(const gp_Pnt& p0, const gp_Pnt& p1, const gp_Pnt& q0, const gp_Pnt& q1) {
+  const gp_Vec d1(p0, p1), d2(q0, q1), r(q0, p0);
+  const double a = d1.SquareMagnitude(), e = d2.SquareMagnitude(), f = d2.Dot(r);
+  constexpr double eps = 1e-12;
+  double s = 0, t = 0;
+  if (a <= eps && e <= eps) return p0.Distance(q0);
+  if (a <= eps) {
+    t = std::clamp(f / e, 0.0, 1.0);
+  } else {
+    const double c = d1.Dot(r);
+    if (e <= eps) {
+      s = std::clamp(-c / a, 0.0, 1.0);
+    } else {
+      const double b = d1.Dot(d2), denom = a * e - b * b;
+      s = denom > eps ? std::clamp((b * f - c * e) / denom, 0.0, 1.0) : 0.0;
+      t = (b * s + f) / e;
+      if (t < 0) {
+        t = 0;
+        s = std::clamp(-c / a, 0.0, 1.0);
+      } else if (t > 1) {
+        t = 1;
+        s = std::clamp((b - c) / a, 0.0, 1.0);
+      }
+    }
+  }
+  const gp_Pnt cp = p0.Translated(d1 * s), cq = q0.Translated(d2 * t);
+  return cp.Distance(cq);
+}
+
 }  // namespace
 
 void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool interference,
@@ -71,15 +102,19 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool inte
   for (std::size_t i = 0; i < m.parts.size(); ++i) {
     const TopoDS_Shape& s = m.parts[i].shape;
     PartInfo& info = m.infos[i];
-    GProp_GProps props;
-    const bool known = m.parts[i].known_volume > 0;
-    BRepGProp::VolumeProperties(known ? m.parts[i].envelope : s, props);
-    info.volume = known ? m.parts[i].known_volume : props.Mass();
+    gp_Pnt centroid = m.parts[i].known_centroid;
+    info.volume = m.parts[i].known_volume;
+    if (info.volume <= 0) {
+      GProp_GProps props;
+      BRepGProp::VolumeProperties(s, props);
+      info.volume = props.Mass();
+      centroid = props.CentreOfMass();
+    }
     info.mass = info.volume * 1e-9 * info.density;  // mm³ → m³
     // Centroid of the first instance, in assembly coordinates.
     for (const auto& in : m.instances) {
       if (in.part != i) continue;
-      const gp_Pnt c = props.CentreOfMass().Transformed(in.placement);
+      const gp_Pnt c = centroid.Transformed(in.placement);
       info.centroid = {c.X(), c.Y(), c.Z()};
       break;
     }
@@ -120,6 +155,18 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool inte
     return part.envelope.IsNull() ? placed[i].shape
                                   : part.envelope.Moved(TopLoc_Location(m.instances[i].placement));
   };
+  // Distance between the bounding capsules of two round parts (Part::bound_radius), in
+  // assembly coordinates; −1 when either has none.
+  auto capsule_distance = [&](std::size_t i, std::size_t j) {
+    const auto& a = m.parts[placed[i].part];
+    const auto& b = m.parts[placed[j].part];
+    if (a.bound_radius <= 0 || b.bound_radius <= 0) return -1.0;
+    const gp_Trsf& ta = m.instances[placed[i].instance].placement;
+    const gp_Trsf& tb = m.instances[placed[j].instance].placement;
+    const double axes = segment_distance(a.axis_from.Transformed(ta), a.axis_to.Transformed(ta),
+                                         b.axis_from.Transformed(tb), b.axis_to.Transformed(tb));
+    return std::max(0.0, axes - a.bound_radius - b.bound_radius);
+  };
   m.contacts.assign(pairs.size(), ContactCheck{});
   for (std::size_t k = 0; k < pairs.size(); ++k) {
     const auto [i, j, boxes_apart] = pairs[k];
@@ -134,6 +181,9 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool inte
       if (boxes_apart) {
         // A lower bound, and exact for plates facing each other across an axial gap.
         c.distance = boxes[i].Distance(boxes[j]);
+      } else if (const double bound = capsule_distance(i, j); bound >= least_clearance) {
+        // Round parts apart by their capsules: a lower bound, enough to pass.
+        c.distance = bound;
       } else {
         BRepExtrema_DistShapeShape d(envelope(i), envelope(j));
         if (!d.IsDone()) {

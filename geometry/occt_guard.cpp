@@ -6,7 +6,6 @@
 #include <Message_PrinterOStream.hxx>
 #include <Message_SequenceOfPrinters.hxx>
 #include <Standard_Failure.hxx>
-#include <XCAFApp_Application.hxx>
 
 #include <mutex>
 
@@ -57,18 +56,6 @@ void StaticSettings::set(const std::string& name, const std::string& value) {
 StaticSettings::~StaticSettings() {
   for (auto it = saved_.rbegin(); it != saved_.rend(); ++it) {
     Interface_Static::SetCVal(it->first.c_str(), it->second.c_str());
-  }
-}
-
-DocumentScope::DocumentScope() {
-  XCAFApp_Application::GetApplication()->NewDocument("MDTV-XCAF", doc);
-}
-
-DocumentScope::~DocumentScope() {
-  try {
-    if (!doc.IsNull() && doc->IsOpened()) XCAFApp_Application::GetApplication()->Close(doc);
-  } catch (const Standard_Failure&) {
-    // Closing cannot fail for a document that was only built and written; never throw here.
   }
 }
 

@@ -8,8 +8,6 @@
 #include <utility>
 #include <vector>
 
-#include <TDocStd_Document.hxx>
-
 #include "geometry/brake_model.hpp"  // QuietOcct
 
 namespace bandforge::geom {
@@ -28,19 +26,6 @@ class StaticSettings {
 
  private:
   std::vector<std::pair<std::string, std::string>> saved_;
-};
-
-/// A new XCAF document ("MDTV-XCAF"), closed when the scope ends. A document and its label tree
-/// refer to each other, so a document that is never closed is never freed (the sanitizer build
-/// reports it); the STEP writer and the tests that re-read STEP files hold one of these.
-class DocumentScope {
- public:
-  DocumentScope();
-  ~DocumentScope();
-  DocumentScope(const DocumentScope&) = delete;
-  DocumentScope& operator=(const DocumentScope&) = delete;
-
-  Handle(TDocStd_Document) doc;
 };
 
 }  // namespace bandforge::geom

@@ -21,6 +21,7 @@
 #include <vector>
 
 #include <TopoDS_Shape.hxx>
+#include <gp_Pnt.hxx>
 #include <gp_Trsf.hxx>
 
 #include "geometry/brake_model.hpp"
@@ -60,11 +61,21 @@ struct BrakeModel::Impl {
     /// eye: the hole's intersection curves cost the hidden-line removal seconds (4.5 s against
     /// 0.55 s for the example's front view) for detail no drawing scale shows.
     TopoDS_Shape display;
-    /// When > 0, the part's volume [mm³] from its own construction, used for its mass
-    /// properties instead of BRepGProp's Gauss rule: the spring's long B-spline faces fool that
-    /// rule by up to 8 % (the adaptive rule agrees with this figure to 1e-5 but takes 0.4 s).
-    /// Its centroid is then taken at the centre of `envelope`.
+    /// When > 0, the part's volume [mm³] and centroid (part coordinates) from its own
+    /// construction, used for its mass properties instead of BRepGProp. The spring: its long
+    /// B-spline faces fool the Gauss rule by up to 8 % (the adaptive rule agrees with the
+    /// centreline integral to 2e-5 but takes 0.4 s); centroid at the centre of its envelope.
+    /// The clevis pins: from their dimensions (clevis_pin_mass), so that the drawing's copy,
+    /// built without the split-pin holes, lists the same masses as the checked model.
     double known_volume = 0;
+    gp_Pnt known_centroid;
+    /// A round part (clevis pin, joint rivet): a segment on its axis and the radius of a
+    /// cylinder round it that holds the whole solid (part coordinates). The capsule of that
+    /// radius round the segment holds the cylinder, so the distance between two parts' capsules
+    /// never exceeds their true clearance: when it is enough, the exact distance is not needed
+    /// (a joint rivet beside a pin cost 4–8 ms each to measure). bound_radius 0: none.
+    gp_Pnt axis_from, axis_to;
+    double bound_radius = 0;
   };
   /// One placement of a part (one STEP instance, NAUO).
   struct Instance {

@@ -286,6 +286,25 @@ TopoDS_Shape make_clevis_pin(const ClevisPinDims& d, bool with_hole) {
   return cut.Shape();
 }
 
+AxialMass clevis_pin_mass(const ClevisPinDims& d) {
+  const double r = d.d / 2, rk = d.dk / 2, a = d.d1 / 2;
+  const double head = pi * rk * rk * d.k, shank = pi * r * r * d.length;
+  // Simpson's rule over φ in [−π/2, π/2], y = a·sin φ, dy = a·cos φ dφ.
+  const int n = 512;
+  const double h = pi / n;
+  double sum = 0;
+  for (int i = 0; i <= n; ++i) {
+    const double phi = -pi / 2 + i * h, c = std::cos(phi), s = std::sin(phi);
+    const double f = 4 * a * a * c * c * std::sqrt(std::max(0.0, r * r - a * a * s * s));
+    sum += f * (i == 0 || i == n ? 1 : i % 2 ? 4 : 2);
+  }
+  const double hole = sum * h / 3;
+  AxialMass m;
+  m.volume = head + shank - hole;
+  m.z = (head * (-d.k / 2) + shank * (d.length / 2) - hole * d.hole_at) / m.volume;
+  return m;
+}
+
 TopoDS_Shape make_rivet(const RivetDims& d) {
   // Half-section in the xz plane (x = radius), revolved about z: each head a spherical cap of
   // base radius a = d_k/2 and height k, sphere radius (a² + k²)/(2k).

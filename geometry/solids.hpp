@@ -94,8 +94,19 @@ TopoDS_Shape make_rod(double radius, double z0, double length);
 struct ClevisPinDims {
   double d = 0, dk = 0, k = 0, length = 0, d1 = 0, hole_at = 0;
 };
-/// `with_hole` false: without the split-pin hole (the drawing's copies, see BuildOptions::drawing).
+/// `with_hole` false: without the split-pin hole (the drawing's copies, see BuildOptions::for_views).
 TopoDS_Shape make_clevis_pin(const ClevisPinDims& d, bool with_hole = true);
+
+/// Volume [mm³] and centroid height on the axis [mm] of a solid of revolution about z.
+struct AxialMass {
+  double volume = 0, z = 0;
+};
+/// The mass properties of make_clevis_pin(d) with its hole, from the dimensions: head and shank
+/// cylinders less the hole's common with the shank, V = ∫ 2√(a² − y²)·2√(r² − y²) dy over
+/// −a…a (a = d₁/2, r = d/2), by Simpson's rule in y = a·sin φ, whose integrand is smooth; the
+/// common is symmetric about z = hole_at. BRepGProp's Gauss rule is as exact on the solid, but
+/// the drawing's copy of the model has no hole to measure (tests/geometry_test.cpp compares both).
+AxialMass clevis_pin_mass(const ClevisPinDims& d);
 
 /// A flat ring (washer, spacer sleeve) about z from z0 to z0 + height [mm].
 TopoDS_Shape make_ring(double inner_diameter, double outer_diameter, double z0, double height);

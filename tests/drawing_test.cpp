@@ -42,6 +42,7 @@
 #include <gp_Cylinder.hxx>
 
 #include "geometry/occt_guard.hpp"
+#include "geometry/xcaf_document.hpp"
 
 namespace bandforge::drawing {
 namespace {

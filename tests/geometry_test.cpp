@@ -36,6 +36,7 @@
 #include "geometry/flat_patterns.hpp"
 #include "geometry/occt_model.hpp"
 #include "geometry/spring_solid.hpp"
+#include "geometry/solids.hpp"
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
@@ -497,6 +498,50 @@ TEST(Checks, ExampleSolidsAreValidAndClear) {
   }
   EXPECT_TRUE(band_lining);
   EXPECT_TRUE(lever_pin);
+}
+
+// Every clearance the checks report without measuring it exactly (from the bounding boxes, the
+// drum's outer cylinder, or the capsules round pins and rivets) is a lower bound: measured here
+// with BRepExtrema on the solids, the true clearance is never smaller. The example's joint rivets
+// beside the end pins are passed by their capsules.
+TEST(Checks, ReportedClearancesNeverExceedTheTrueOnes) {
+  const Built x = build(read_design_file(kExample));
+  int rivet_pin = 0, measured = 0;
+  for (const ContactCheck& c : x.model.contacts()) {
+    if (c.intended || c.distance < 0) continue;
+    const double exact = BRepExtrema_DistShapeShape(placed(x.model, c.part_a), placed(x.model, c.part_b)).Value();
+    EXPECT_LE(c.distance, exact + 1e-7) << c.part_a << " / " << c.part_b;
+    EXPECT_GE(exact, 0.01) << c.part_a << " / " << c.part_b;
+    ++measured;
+    const bool rivet = c.part_a.rfind("RIVET-", 0) == 0 || c.part_b.rfind("RIVET-", 0) == 0;
+    const bool pin = c.part_a.rfind("PIN-", 0) == 0 || c.part_b.rfind("PIN-", 0) == 0;
+    if (rivet && pin) {
+      ++rivet_pin;
+      std::cout << "[ capsule  ] " << c.part_a << " / " << c.part_b << ": reported " << c.distance
+                << " mm, true " << exact << " mm\n";
+    }
+  }
+  EXPECT_GE(rivet_pin, 8);  // four rivets of each joint's last row beside its pin
+  EXPECT_GT(measured, rivet_pin);
+}
+
+// The clevis pins' mass properties come from their dimensions (clevis_pin_mass), so that the
+// drawing's copy, built without the split-pin holes, lists the checked model's masses: they must
+// be the solid's. ISO 2341 B 16 × 120 (the example's end pins: d_k 25, k 4.5, d_1 4, hole 114 mm
+// from the head, REFERENCE §5.9) and 8 × 30 (d_k 14, k 3, d_1 2, hole 26), by adaptive integration.
+TEST(ClevisPinMass, EqualsTheSolidsVolumeAndCentroid) {
+  for (const ClevisPinDims d : {ClevisPinDims{16, 25, 4.5, 120, 4, 114}, ClevisPinDims{8, 14, 3, 30, 2, 26}}) {
+    GProp_GProps g;
+    BRepGProp::VolumeProperties(make_clevis_pin(d, true), g, 1e-9);
+    const AxialMass m = clevis_pin_mass(d);
+    EXPECT_NEAR(m.volume, g.Mass(), 1e-7 * g.Mass()) << d.d << " x " << d.length;
+    EXPECT_NEAR(m.z, g.CentreOfMass().Z(), 1e-6) << d.d << " x " << d.length;
+    EXPECT_NEAR(g.CentreOfMass().X(), 0, 1e-9);
+    // Without the hole the solid is larger by exactly the hole's common with the shank.
+    GProp_GProps plain;
+    BRepGProp::VolumeProperties(make_clevis_pin(d, false), plain, 1e-9);
+    EXPECT_GT(plain.Mass() - m.volume, 0.5 * 3.14159 * d.d1 * d.d1 / 4 * d.d);
+  }
 }
 
 TEST(Checks, AnOversizePinInItsHoleIsMeasuredAsOverlap) {

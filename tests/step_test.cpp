@@ -41,6 +41,7 @@
 
 #include "geometry/brake_model.hpp"
 #include "geometry/occt_guard.hpp"
+#include "geometry/xcaf_document.hpp"
 #include "geometry/step_canonical.hpp"
 #include "geometry/step_header.hpp"
 #include "src/design_reader.hpp"

@@ -9,7 +9,6 @@
 #include <fstream>
 #include <cstring>
 #include <filesystem>
-#include <future>
 #include <iostream>
 #include <memory>
 #include <optional>
@@ -19,6 +18,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "src/cli/child_job.hpp"
 #include "src/cli/commands.hpp"
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
@@ -60,6 +60,13 @@ void write_bytes(const std::string& path, const std::string& bytes) {
   out.write(bytes.data(), static_cast<std::streamsize>(bytes.size()));
   out.close();
   if (!out) throw IoError("cannot write " + path + " (disk full?)");
+}
+
+// The file of sheet i (from 0) with --sheets separate: "<number>-01.pdf", …
+std::string sheet_file(const std::string& stem, std::size_t i) {
+  char n[32];
+  std::snprintf(n, sizeof n, "-%02zu.pdf", i + 1);
+  return stem + n;
 }
 
 std::string fixed(double v, int decimals) {
@@ -186,25 +193,28 @@ void build_outputs(const BuildCommand& cmd) {
   // The reader accepts only a safe file stem for [project] number (letters, digits, - _ .).
   const std::string stem = design.project.number;
   StagedOutputs staging(cmd.out_dir, stem);
-  // OCCT's messenger is process-wide: one guard for the whole two-thread section (see QuietOcct).
+  // OCCT's messenger is process-wide: one guard for the whole section (see QuietOcct); the
+  // child processes inherit it.
   const geom::QuietOcct quiet;
-  // Staged names are taken here, on one thread, in the order the files are listed.
+  // Staged names are taken here, in the parent, in the order the files are listed.
   const std::string step_path = staging.path(stem + ".step");
 #ifdef BANDFORGE_HAVE_DRAWING
   const std::string pdf_path = staging.path(stem + ".pdf");
-  std::vector<std::string> sheet_pdfs;  // written by the drawing thread, read after it joins
-  // The drawing runs on the second core while this thread builds, checks and exports the model:
-  // it works on its own copies of the solids (no OCCT shape is shared between the threads).
-  // It shows the applied state with the released lever as a phantom line, so it needs both
-  // states; its copies skip the interference checks, which the checked model below runs.
-  // The calculation sheet's cut list is taken from its own applied copy by the same cut_list()
-  // that gives the rows of fab/cutlist.csv below: the flat patterns do not depend on the state
-  // (the band is developed from the solved layout, plates and bars are read in part coordinates),
-  // and the two threads share nothing they write.
-  std::future<void> drawing_done = std::async(std::launch::async, [&] {
+  // The drawing is made by a child process on the second core while this process builds,
+  // checks and exports the model (src/cli/child_job.hpp: OCCT on two threads of one process
+  // slowed both by a third). It builds its own copy of the solids as the views show them
+  // (BuildOptions::for_views) and shows the applied state with the released lever as a phantom
+  // line; its copies skip the interference checks, which the checked model below runs. The
+  // calculation sheet's cut list is taken from its applied copy by the same cut_list() that
+  // gives the rows of fab/cutlist.csv below: the flat patterns do not depend on the state (the
+  // band is developed from the solved layout, plates and bars are read in part coordinates).
+  // With --sheets separate it also writes one PDF per sheet into the staging folder's sheets/
+  // and reports how many; their names are taken below.
+  ChildJob drawing_job([&]() -> std::string {
     geom::BuildOptions applied;
     applied.interference = false;
     applied.validity = false;  // the model below is validated; this copy gives masses and views
+    applied.for_views = true;  // pins without split-pin holes, the spring as its cylinder
     geom::BuildOptions released = applied;
     released.released = true;
     // The phantom shows the lever and grip only: no validity or mass properties needed (the
@@ -217,28 +227,41 @@ void build_outputs(const BuildCommand& cmd) {
     if (solution.hardware.release_ok) phantom = geom::build_brake(design, solution, released);
     const std::vector<geom::CutListRow> cut = geom::cut_list(design, solution, shown);
     const UnitSystem units = cmd.units == "us" ? UnitSystem::us : UnitSystem::si;
-    if (cmd.sheets == "separate") {
-      write_bytes(pdf_path, drawing::render_drawing(design, solution, &shown, phantom ? &*phantom : nullptr,
-                                                    cut, units, nullptr, &sheet_pdfs));
-    } else {
+    if (cmd.sheets != "separate") {
       drawing::write_drawing(design, solution, &shown, phantom ? &*phantom : nullptr, cut, units, pdf_path);
+      return "0";
     }
+    std::vector<std::string> sheet_pdfs;
+    write_bytes(pdf_path, drawing::render_drawing(design, solution, &shown, phantom ? &*phantom : nullptr, cut,
+                                                  units, nullptr, &sheet_pdfs));
+    const fs::path sheets = fs::path(pdf_path).parent_path() / "sheets";
+    fs::create_directories(sheets);
+    for (std::size_t i = 0; i < sheet_pdfs.size(); ++i) {
+      write_bytes((sheets / sheet_file(stem, i)).string(), sheet_pdfs[i]);
+    }
+    return std::to_string(sheet_pdfs.size());
   });
 #endif
   geom::BuildOptions options;
   options.released = cmd.released;
-  const geom::BrakeModel model = geom::build_brake(design, solution, options);
+  // The solids first; then the STEP export in a child process, on its copy of them, while this
+  // one checks the model (the export needs the shapes and their names only). A failed check
+  // throws here: the children are stopped (~ChildJob) before the staged files go.
+  options.checks = false;
+  geom::BrakeModel model = geom::build_brake(design, solution, options);
+  ChildJob step_job([&]() -> std::string {
+    geom::write_step(model, design, step_path);
+    return "";
+  });
+  options.checks = true;
+  geom::check_model(model, options);
   // Flattened before anything is written: a part that cannot be flattened leaves no files.
   const geom::FabPack fab = geom::make_fab_pack(design, solution, model);
-  geom::write_step(model, design, step_path);
+  step_job.wait();  // throws the export's error, if any
 #ifdef BANDFORGE_HAVE_DRAWING
-  drawing_done.get();  // rethrows the drawing's error, if any
-  // One file per sheet: OUT/sheets/<number>-01.pdf … in the order of the set.
-  for (std::size_t i = 0; i < sheet_pdfs.size(); ++i) {
-    char n[32];
-    std::snprintf(n, sizeof n, "-%02zu.pdf", i + 1);
-    write_bytes(staging.path("sheets/" + stem + n), sheet_pdfs[i]);
-  }
+  const std::size_t sheet_count = std::stoul(drawing_job.wait());  // throws the drawing's error
+  // One file per sheet: OUT/sheets/<number>-01.pdf … in the order of the set (written above).
+  for (std::size_t i = 0; i < sheet_count; ++i) staging.path("sheets/" + sheet_file(stem, i));
 #endif
   const geom::DxfVersion dxf =
       cmd.dxf_version == "r12" ? geom::DxfVersion::r12 : geom::DxfVersion::r2000;
