@@ -6,6 +6,7 @@
 
 #include <cerrno>
 #include <cstdio>
+#include <cstdlib>
 #include <fstream>
 #include <cstring>
 #include <filesystem>
@@ -343,6 +344,15 @@ fs::path cad_executable() {
 
 void hand_over(const std::string& command) {
   const fs::path cad = cad_executable();
+  // glibc's malloc on transparent huge pages where the kernel offers them (madvise): 40 % fewer
+  // page faults and ~5 % less CPU per `build` (README "Performance"); read by glibc at start, so
+  // set for the program started here. A setting of the user's own is kept.
+  const char* tunables = std::getenv("GLIBC_TUNABLES");
+  if (tunables == nullptr || std::strstr(tunables, "glibc.malloc.hugetlb") == nullptr) {
+    const std::string t = std::string(tunables ? tunables : "") + (tunables && *tunables ? ":" : "") +
+                          "glibc.malloc.hugetlb=1";
+    ::setenv("GLIBC_TUNABLES", t.c_str(), 1);
+  }
   std::fflush(nullptr);
   ::execv(cad.c_str(), original_argv());
   throw Error(Exit::internal, command + ": cannot start " + cad.string() + ": " + std::strerror(errno));
