@@ -12,6 +12,7 @@
 #include "geometry/flat_internal.hpp"
 #include "src/errors.hpp"
 #include "src/hardware.hpp"
+#include "src/standard_parts.hpp"
 
 namespace bandforge::geom {
 namespace {
@@ -77,7 +78,10 @@ Plan plan(const Design& d, const Solution& s) {
   Plan p;
   p.t = d.band.thickness * mm_per_m;
   p.b = d.band.width * mm_per_m;
-  p.pin_r = d.band.pin_diameter / 2 * mm_per_m;
+  // The eye is formed round the pin as bought, the ISO 2341 nominal (src/standard_parts.hpp),
+  // as the band solid is (geometry/assemble.cpp): not the design's figure when that is no size
+  // of the series.
+  p.pin_r = standard::clevis_nominal(d.band.pin_diameter) / 2 * mm_per_m;
   p.rho = p.pin_r + p.t / 2;
   p.r = L.r * mm_per_m;
   p.r_b = L.r_band * mm_per_m;
@@ -99,7 +103,7 @@ Plan plan(const Design& d, const Solution& s) {
                    "inside bend radius of " + num(p.pin_r, 1) + " mm, less than the band thickness " +
                    num(p.t, 1) + " mm (band.thickness): a cold-formed eye needs an inside radius of "
                    "at least one thickness; make band.pin_diameter at least " +
-                   num(2 * (p.t - p.pin_r), 1) + " mm larger, or set band.end_joint = \"welded-block\"");
+                   num(2 * p.t, 1) + " mm, or set band.end_joint = \"welded-block\"");
   }
   p.rivets = lining_rivets(p);
   return p;

@@ -20,6 +20,7 @@
 #include "src/design_reader.hpp"
 #include "src/errors.hpp"
 #include "src/mechanics.hpp"
+#include "src/standard_parts.hpp"
 #include "tests/support.hpp"
 
 namespace fs = std::filesystem;
@@ -198,7 +199,9 @@ TEST(FabPack, BandBlankIsSolvedCentrelinePlusEyesAndLaps) {
     const FabPack pack = make_fab_pack(b.design, b.solution, b.model);
     const FlatPart& band = *find(pack, "BAND-BLANK");
     const double t = b.design.band.thickness * 1000;
-    const double rho = b.design.band.pin_diameter / 2 * 1000 + t / 2;  // eye neutral radius
+    // Eye neutral radius round the pin as bought (the ISO 2341 nominal; the examples' pins are
+    // nominal sizes already).
+    const double rho = standard::clevis_nominal(b.design.band.pin_diameter) / 2 * 1000 + t / 2;
     // Each eye: one full turn 2πρ round the pin, less the ρ of run that the solve's centreline
     // counts from the pin centre to the eye (the run is aimed at the pin centre).
     const double eye = 2 * pi * rho - rho;
@@ -508,6 +511,20 @@ TEST(FabPack, LiningTooThickToRollIsRefusedAndLeavesNoFabFolder) {
   refusal(b, out);
   EXPECT_EQ(slurp(out / "fab" / "band-blank.dxf"), before);
   EXPECT_FALSE(fs::exists(out / ".fab.partial"));
+}
+
+// A design pin of Ø15 mm is bought as the ISO 2341 Ø16 (REFERENCE §5.9: the series runs
+// … 12, 14, 16, 18 …): the band solid's eyes are formed round Ø16, and so is the blank.
+// Eye: ρ = 8 + 1.5 = 9.5, (2π − 1)·9.5 = 50.190 mm, as in BinHoistEyeJointByHand.
+TEST(FabPack, EyeIsDevelopedRoundThePinAsBought) {
+  const Built b = build(example_with("pin_diameter = \"16 mm\"", "pin_diameter = \"15 mm\""), "pin15");
+  const FabPack pack = make_fab_pack(b.design, b.solution, b.model);
+  const FlatPart& band = *find(pack, "BAND-BLANK");
+  ASSERT_GE(band.developed.size(), 4u);
+  EXPECT_NEAR(band.developed[1].length, 50.190, 5e-4);
+  bool mandrel = false;
+  for (const std::string& n : band.notes) mandrel = mandrel || n.find("form round a dia 16 mandrel") != std::string::npos;
+  EXPECT_TRUE(mandrel);
 }
 
 TEST(FabPack, PinTooSmallToFormTheEyeIsRefused) {
