@@ -59,8 +59,10 @@ double common_volume(const TopoDS_Shape& a, const TopoDS_Shape& b) {
   return r.IsNull() || solid_count(r) == 0 ? 0.0 : volume_of(r);
 }
 
-// Smallest distance between the segments p0–p1 and q0–q1 (closest points of two segments,
-// clamped to both; C. Ericson, Real-Time Collision Detection, 2005, §5.1.9, from memory).
+}  // namespace
+
+// Closest points of two segments, clamped to both: C. Ericson, Real-Time Collision Detection,
+// 2005, §5.1.9 (from memory).
 double segment_distance(const gp_Pnt& p0, const gp_Pnt& p1, const gp_Pnt& q0, const gp_Pnt& q1) {
   const gp_Vec d1(p0, p1), d2(q0, q1), r(q0, p0);
   const double a = d1.SquareMagnitude(), e = d2.SquareMagnitude(), f = d2.Dot(r);
@@ -90,8 +92,6 @@ double segment_distance(const gp_Pnt& p0, const gp_Pnt& p1, const gp_Pnt& q0, co
   return cp.Distance(cq);
 }
 
-}  // namespace
-
 void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool interference,
                 bool validity) {
   // One thread on purpose: on two shared cores, OCCT's thread pool made the checks slower and
@@ -118,8 +118,11 @@ void run_checks(BrakeModel::Impl& m, const IntendedContacts& intended, bool inte
       info.centroid = {c.X(), c.Y(), c.Z()};
       break;
     }
-    // One closed solid, valid, with material inside (an inside-out solid has negative volume).
-    m.solid_ok[i] = solid_count(s) == 1 && (!validity || BRepCheck_Analyzer(s).IsValid()) && info.volume > 0;
+    // One closed solid, valid, with material inside (an inside-out solid has negative volume:
+    // for a part whose volume is known from its construction, the solid's own Gauss-rule volume
+    // is still measured for its sign when the model is validated).
+    const bool inside = info.volume > 0 && (m.parts[i].known_volume <= 0 || !validity || volume_of(s) > 0);
+    m.solid_ok[i] = solid_count(s) == 1 && (!validity || BRepCheck_Analyzer(s).IsValid()) && inside;
     m.valid = m.valid && m.solid_ok[i];
   }
   if (!interference) return;

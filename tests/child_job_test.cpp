@@ -3,6 +3,8 @@
 #include <chrono>
 #include <csignal>
 #include <cstdlib>
+#include <functional>
+#include <stdexcept>
 #include <string>
 #include <thread>
 
@@ -26,51 +28,42 @@ TEST(ChildJob, ALongReportDoesNotBlockTheChild) {
   EXPECT_EQ(job.wait(), big);
 }
 
-TEST(ChildJob, ABuildErrorComesBackAsABuildErrorWithItsMessage) {
-  ChildJob job([]() -> std::string { throw BuildError("while building the band: no"); });
+// wait() on a child running `work`, which fails: the error is caught as E, with `code` and a
+// message containing `text`.
+template <class E>
+void expect_rethrown(const std::function<std::string()>& work, Exit code, const std::string& text) {
+  ChildJob job(work);
   try {
     job.wait();
-    FAIL() << "no error";
-  } catch (const BuildError& e) {
-    EXPECT_EQ(e.code(), Exit::cannot_build);
-    EXPECT_STREQ(e.what(), "while building the band: no");
+    ADD_FAILURE() << "no error";
+  } catch (const E& e) {
+    EXPECT_EQ(e.code(), code);
+    EXPECT_NE(std::string(e.what()).find(text), std::string::npos) << e.what();
   }
+}
+
+TEST(ChildJob, ABuildErrorComesBackAsABuildErrorWithItsMessage) {
+  expect_rethrown<BuildError>([]() -> std::string { throw BuildError("while building the band: no"); },
+                              Exit::cannot_build, "while building the band: no");
 }
 
 TEST(ChildJob, AnIoErrorKeepsItsExitStatus) {
-  ChildJob job([]() -> std::string { throw IoError("cannot write x.pdf"); });
-  try {
-    job.wait();
-    FAIL() << "no error";
-  } catch (const IoError& e) {
-    EXPECT_EQ(e.code(), Exit::io);
-    EXPECT_STREQ(e.what(), "cannot write x.pdf");
-  }
+  expect_rethrown<IoError>([]() -> std::string { throw IoError("cannot write x.pdf"); }, Exit::io,
+                           "cannot write x.pdf");
 }
 
 TEST(ChildJob, AnyOtherExceptionIsAnInternalError) {
-  ChildJob job([]() -> std::string { throw std::runtime_error("vector::at"); });
-  try {
-    job.wait();
-    FAIL() << "no error";
-  } catch (const Error& e) {
-    EXPECT_EQ(e.code(), Exit::internal);
-    EXPECT_NE(std::string(e.what()).find("vector::at"), std::string::npos);
-  }
+  expect_rethrown<Error>([]() -> std::string { throw std::runtime_error("vector::at"); }, Exit::internal,
+                         "vector::at");
 }
 
 TEST(ChildJob, AChildKilledByASignalIsAnInternalErrorNamingIt) {
-  ChildJob job([]() -> std::string {
-    std::signal(SIGABRT, SIG_DFL);
-    std::abort();
-  });
-  try {
-    job.wait();
-    FAIL() << "no error";
-  } catch (const Error& e) {
-    EXPECT_EQ(e.code(), Exit::internal);
-    EXPECT_NE(std::string(e.what()).find("signal " + std::to_string(SIGABRT)), std::string::npos) << e.what();
-  }
+  expect_rethrown<Error>(
+      []() -> std::string {
+        std::signal(SIGABRT, SIG_DFL);
+        std::abort();
+      },
+      Exit::internal, "signal " + std::to_string(SIGABRT));
 }
 
 TEST(ChildJob, NotWaitedForTheChildIsStoppedAtOnce) {

@@ -504,6 +504,33 @@ TEST(Checks, ExampleSolidsAreValidAndClear) {
 // drum's outer cylinder, or the capsules round pins and rivets) is a lower bound: measured here
 // with BRepExtrema on the solids, the true clearance is never smaller. The example's joint rivets
 // beside the end pins are passed by their capsules.
+// segment_distance: the axes of the bounding capsules. Each expected value is elementary
+// geometry worked by hand (no source needed): the cases cover every branch — skew segments
+// whose closest points are inside both, parallel ones side by side and end to end, a closest
+// point clamped to an end, crossing segments, and a segment that is a point.
+TEST(Checks, SegmentDistanceByHand) {
+  auto d = [](gp_Pnt a, gp_Pnt b, gp_Pnt c, gp_Pnt e) { return segment_distance(a, b, c, e); };
+  // Skew: x axis from −1 to 1 at z = 0, y axis from −1 to 1 at z = 3: closest points at the
+  // origins, 3 apart.
+  EXPECT_NEAR(d({-1, 0, 0}, {1, 0, 0}, {0, -1, 3}, {0, 1, 3}), 3.0, 1e-12);
+  // Crossing in one plane: 0.
+  EXPECT_NEAR(d({-1, 0, 0}, {1, 0, 0}, {0, -1, 0}, {0, 1, 0}), 0.0, 1e-12);
+  // Parallel, overlapping along x, 2 apart in y: 2.
+  EXPECT_NEAR(d({0, 0, 0}, {4, 0, 0}, {1, 2, 0}, {6, 2, 0}), 2.0, 1e-12);
+  // Parallel, end to end along x with a gap of 3 and an offset of 4: the 3-4-5 triangle, 5.
+  EXPECT_NEAR(d({0, 0, 0}, {1, 0, 0}, {4, 4, 0}, {6, 4, 0}), 5.0, 1e-12);
+  // Skew with the closest point beyond the second segment's end: x axis 0…10 against the
+  // segment from (5, 2, 1) to (5, 5, 1) along y: clamped to (5, 2, 1), √(2² + 1²) = √5.
+  EXPECT_NEAR(d({0, 0, 0}, {10, 0, 0}, {5, 2, 1}, {5, 5, 1}), std::sqrt(5.0), 1e-12);
+  // A point against a segment: (3, 4, 0) to the x axis 0…10: 4; beyond its end, to (−3, 4, 0): 5.
+  EXPECT_NEAR(d({3, 4, 0}, {3, 4, 0}, {0, 0, 0}, {10, 0, 0}), 4.0, 1e-12);
+  EXPECT_NEAR(d({0, 0, 0}, {10, 0, 0}, {-3, 4, 0}, {-3, 4, 0}), 5.0, 1e-12);
+  // Two points.
+  EXPECT_NEAR(d({1, 1, 1}, {1, 1, 1}, {4, 5, 1}, {4, 5, 1}), 5.0, 1e-12);
+  // Symmetric in its two segments.
+  EXPECT_NEAR(d({5, 2, 1}, {5, 5, 1}, {0, 0, 0}, {10, 0, 0}), std::sqrt(5.0), 1e-12);
+}
+
 TEST(Checks, ReportedClearancesNeverExceedTheTrueOnes) {
   const Built x = build(read_design_file(kExample));
   int rivet_pin = 0, measured = 0;
