@@ -21,7 +21,6 @@
 
 #include "geometry/assemble.hpp"
 #include "src/band_path.hpp"
-#include "geometry/occt_guard.hpp"
 #include "geometry/solids.hpp"
 #include "geometry/spring_solid.hpp"
 #include "src/apply.hpp"

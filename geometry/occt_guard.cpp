@@ -1,6 +1,6 @@
-#include "geometry/occt_guard.hpp"
+// QuietOcct (geometry/brake_model.hpp): OpenCASCADE's messenger, quieted and restored.
+#include "geometry/brake_model.hpp"
 
-#include <Interface_Static.hxx>
 #include <Message.hxx>
 #include <Message_Messenger.hxx>
 #include <Message_PrinterOStream.hxx>
@@ -40,23 +40,6 @@ QuietOcct::~QuietOcct() {
   if (--quiet_depth > 0) return;
   Message::DefaultMessenger()->ChangePrinters() = saved_printers();
   saved_printers().Clear();
-}
-
-void StaticSettings::set(const std::string& name, const std::string& value) {
-  const Standard_CString old = Interface_Static::CVal(name.c_str());
-  if (old == nullptr) throw BuildError("OpenCASCADE has no setting " + name);
-  const std::string previous = old;
-  if (!Interface_Static::SetCVal(name.c_str(), value.c_str()) ||
-      value != Interface_Static::CVal(name.c_str())) {
-    throw BuildError("OpenCASCADE refused " + name + " = " + value);
-  }
-  saved_.emplace_back(name, previous);
-}
-
-StaticSettings::~StaticSettings() {
-  for (auto it = saved_.rbegin(); it != saved_.rend(); ++it) {
-    Interface_Static::SetCVal(it->first.c_str(), it->second.c_str());
-  }
 }
 
 }  // namespace bandforge::geom

@@ -14,63 +14,37 @@
 // item per solid (STEPConstruct_Styles) gathered in one
 // MECHANICAL_DESIGN_GEOMETRIC_PRESENTATION_REPRESENTATION per part. tests/step_test.cpp reads the
 // file back with OCCT's XCAF reader, an independent path, and checks all of it.
+//
+// The OCCT part (the transfer, names, colours, header) is in step_transfer.cpp, built as the
+// module bandforge-step.so that `build` loads in the export's child process only (the STEP
+// libraries' relocations were ~20 ms of every start); the tests link it in. This file gathers
+// the input from the model, calls it, and post-processes the text (step_canonical.hpp).
+#include <dlfcn.h>
+
 #include <array>
 #include <cstdio>
 #include <cstdlib>
-#include <ctime>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
+#include <stdexcept>
 #include <string>
 
-#include <APIHeaderSection_MakeHeader.hxx>
-#include <BRep_Builder.hxx>
-#include <Interface_Static.hxx>
-#include <Quantity_Color.hxx>
-#include <STEPConstruct.hxx>
-#include <STEPConstruct_Styles.hxx>
-#include <STEPControl_Controller.hxx>
-#include <STEPControl_Writer.hxx>
-#include <Standard_Failure.hxx>
-#include <StepBasic_Product.hxx>
-#include <StepBasic_ProductDefinition.hxx>
-#include <StepBasic_ProductDefinitionFormation.hxx>
-#include <StepBasic_ProductDefinitionRelationship.hxx>
-#include <StepData_StepModel.hxx>
-#include <StepRepr_CharacterizedDefinition.hxx>
-#include <StepRepr_ProductDefinitionShape.hxx>
-#include <StepRepr_PropertyDefinition.hxx>
-#include <StepRepr_RepresentationItem.hxx>
-#include <StepRepr_RepresentedDefinition.hxx>
-#include <StepShape_ContextDependentShapeRepresentation.hxx>
-#include <StepShape_ShapeDefinitionRepresentation.hxx>
-#include <StepVisual_Colour.hxx>
-#include <StepVisual_MechanicalDesignGeometricPresentationRepresentation.hxx>
-#include <StepVisual_PresentationStyleAssignment.hxx>
-#include <StepVisual_StyledItem.hxx>
-#include <TCollection_HAsciiString.hxx>
 #include <TopExp_Explorer.hxx>
-#include <TopLoc_Location.hxx>
-#include <TopoDS.hxx>
-#include <TopoDS_Compound.hxx>
-#include <TransferBRep.hxx>
-#include <TransferBRep_ShapeMapper.hxx>
-#include <Transfer_FinderProcess.hxx>
-#include <XSControl_TransferWriter.hxx>
-#include <XSControl_WorkSession.hxx>
 
-#include "geometry/occt_guard.hpp"
 #include "geometry/occt_model.hpp"
 #include "geometry/step_canonical.hpp"
 #include "geometry/step_header.hpp"
+#include "geometry/step_transfer.hpp"
 #include "src/errors.hpp"
+
+// Defined when the module's object is linked in (the tests and benchmarks); null in
+// bandforge-cad, which loads the module instead.
+extern "C" int bandforge_step_transfer_v1(const bandforge::geom::StepTransferInput*, const char*, char*,
+                                          std::size_t) __attribute__((weak));
 
 namespace bandforge::geom {
 namespace {
-
-Handle(TCollection_HAsciiString) ascii(const std::string& s) {
-  return new TCollection_HAsciiString(s.c_str());
-}
 
 // A part as one solid: a boolean's result is a compound holding it, which the writer's
 // assembly mode would take for a sub-assembly.
@@ -84,33 +58,29 @@ TopoDS_Shape as_solid(const TopoDS_Shape& s) {
   return solid;
 }
 
-// The PRODUCT of a transferred shape (part or assembly), through its
-// SHAPE_DEFINITION_REPRESENTATION → PRODUCT_DEFINITION_SHAPE → PRODUCT_DEFINITION.
-Handle(StepBasic_Product) product_of(const Handle(Transfer_FinderProcess)& fp, const TopoDS_Shape& s) {
-  Handle(StepShape_ShapeDefinitionRepresentation) sdr;
-  if (!fp->FindTypedTransient(TransferBRep::ShapeMapper(fp, s),
-                              STANDARD_TYPE(StepShape_ShapeDefinitionRepresentation), sdr)) {
-    return {};
-  }
-  const Handle(StepRepr_PropertyDefinition) pd = sdr->Definition().PropertyDefinition();
-  if (pd.IsNull()) return {};
-  const Handle(StepBasic_ProductDefinition) def = pd->Definition().ProductDefinition();
-  if (def.IsNull() || def->Formation().IsNull()) return {};
-  return def->Formation()->OfProduct();
-}
+using TransferFunction = int (*)(const StepTransferInput*, const char*, char*, std::size_t);
 
-// The NEXT_ASSEMBLY_USAGE_OCCURRENCE of a located instance, through its
-// CONTEXT_DEPENDENT_SHAPE_REPRESENTATION → PRODUCT_DEFINITION_SHAPE.
-Handle(StepBasic_ProductDefinitionRelationship) occurrence_of(const Handle(Transfer_FinderProcess)& fp,
-                                                              const TopoDS_Shape& located) {
-  Handle(StepShape_ContextDependentShapeRepresentation) cdsr;
-  if (!fp->FindTypedTransient(TransferBRep::ShapeMapper(fp, located),
-                              STANDARD_TYPE(StepShape_ContextDependentShapeRepresentation), cdsr)) {
-    return {};
+// The transfer: linked in, or from bandforge-step.so in the running executable's directory
+// (build/bin/ in the build tree, <prefix>/libexec/bandforge/ installed, beside bandforge-cad).
+// Loaded once per process; a missing or broken module is a BuildError naming the file.
+TransferFunction transfer_function() {
+  if (bandforge_step_transfer_v1 != nullptr) return &bandforge_step_transfer_v1;
+  static TransferFunction loaded = nullptr;
+  if (loaded != nullptr) return loaded;
+  std::error_code ec;
+  const std::filesystem::path exe = std::filesystem::read_symlink("/proc/self/exe", ec);
+  const std::filesystem::path module = exe.parent_path() / step_module_file;
+  void* handle = ::dlopen(module.c_str(), RTLD_NOW | RTLD_LOCAL);
+  if (handle == nullptr) {
+    const char* why = ::dlerror();
+    throw BuildError("cannot load the STEP writer " + module.string() + ": " + (why ? why : "unknown error") +
+                     " (it is installed beside bandforge-cad)");
   }
-  const Handle(StepRepr_ProductDefinitionShape) pds = cdsr->RepresentedProductRelation();
-  if (pds.IsNull()) return {};
-  return pds->Definition().ProductDefinitionRelationship();
+  loaded = reinterpret_cast<TransferFunction>(::dlsym(handle, step_entry_symbol));
+  if (loaded == nullptr) {
+    throw BuildError("the STEP writer " + module.string() + " has no entry point " + step_entry_symbol);
+  }
+  return loaded;
 }
 
 std::string read_file(const std::string& path) {
@@ -135,90 +105,16 @@ void write_step(const BrakeModel& model, const Design& design, const std::string
   const StepHeader header = step_header(design, std::filesystem::path(path).filename().string());
   const std::string partial = path + ".partial";
   QuietOcct quiet;
-  try {
-    std::vector<TopoDS_Shape> solids;
-    for (const auto& part : m.parts) solids.push_back(as_solid(part.shape));
-    // The assembly: every instance is its part's solid, located; instances of one part share it.
-    TopoDS_Compound assembly;
-    BRep_Builder builder;
-    builder.MakeCompound(assembly);
-    std::vector<TopoDS_Shape> located;
-    for (const auto& in : m.instances) {
-      located.push_back(solids[in.part].Located(TopLoc_Location(in.placement)));
-      builder.Add(assembly, located.back());
-    }
-    StaticSettings settings;
-    // The schema must be set after Init() and before the writer exists (TOOLCHAIN.md).
-    STEPControl_Controller::Init();
-    settings.set("write.step.schema", "AP214IS");
-    settings.set("write.step.unit", "MM");
-    // Auto: a compound of several shapes is an assembly, a single solid a part.
-    settings.set("write.step.assembly", "Auto");
-    STEPControl_Writer writer;
-    if (writer.Transfer(assembly, STEPControl_AsIs) != IFSelect_RetDone) {
-      throw BuildError("while writing the STEP file: the assembly did not transfer");
-    }
-    const Handle(XSControl_WorkSession)& ws = writer.WS();
-    const Handle(Transfer_FinderProcess) fp = ws->TransferWriter()->FinderProcess();
-    // Names: PRODUCT id and name alike (REFERENCE §6.2), the instance's name on its NAUO.
-    auto name_product = [&](const TopoDS_Shape& s, const std::string& name) {
-      const Handle(StepBasic_Product) p = product_of(fp, s);
-      if (p.IsNull()) throw BuildError("while writing the STEP file: no product for " + name);
-      p->SetId(ascii(name));
-      p->SetName(ascii(name));
-    };
-    name_product(assembly, header.assembly);
-    for (std::size_t i = 0; i < m.parts.size(); ++i) name_product(solids[i], m.infos[i].name);
-    for (std::size_t k = 0; k < m.instances.size(); ++k) {
-      const Handle(StepBasic_ProductDefinitionRelationship) nauo = occurrence_of(fp, located[k]);
-      if (nauo.IsNull()) {
-        throw BuildError("while writing the STEP file: no assembly occurrence for " + m.instances[k].name);
-      }
-      nauo->SetName(ascii(m.instances[k].name));
-    }
-    // Colours: one styled item on each part's solid, one presentation per part in its context.
-    STEPConstruct_Styles styles(ws);
-    const Handle(StepVisual_Colour) no_colour;
-    // One COLOUR_RGB per distinct colour, shared by the parts that have it.
-    STEPConstruct_DataMapOfAsciiStringTransient named_colours;
-    STEPConstruct_DataMapOfPointTransient rgb_colours;
-    for (std::size_t i = 0; i < m.parts.size(); ++i) {
-      const Handle(StepRepr_RepresentationItem) item = STEPConstruct::FindEntity(fp, solids[i]);
-      const Handle(StepRepr_RepresentationContext) context = styles.FindContext(solids[i]);
-      if (item.IsNull() || context.IsNull()) {
-        throw BuildError("while writing the STEP file: no solid entity for " + m.infos[i].name);
-      }
-      const Rgb c = m.infos[i].colour;
-      const Handle(StepVisual_Colour) colour = STEPConstruct_Styles::EncodeColor(
-          Quantity_Color(c.r, c.g, c.b, Quantity_TOC_sRGB), named_colours, rgb_colours);
-      styles.ClearStyles();
-      styles.AddStyle(item, styles.MakeColorPSA(item, colour, no_colour, no_colour, 0.0), nullptr);
-      Handle(StepVisual_MechanicalDesignGeometricPresentationRepresentation) presentation;
-      if (!styles.CreateMDGPR(context, presentation) || presentation.IsNull()) {
-        throw BuildError("while writing the STEP file: the colour of " + m.infos[i].name + " was not written");
-      }
-      writer.Model()->AddWithRefs(presentation);
-    }
-    APIHeaderSection_MakeHeader mh(writer.Model());
-    mh.SetName(ascii(header.file_name));
-    mh.SetTimeStamp(ascii(header.time_stamp));
-    mh.SetDescriptionValue(1, ascii(header.description));
-    mh.SetAuthorValue(1, ascii(header.author));
-    mh.SetOrganizationValue(1, ascii(header.organization));
-    mh.SetPreprocessorVersion(ascii(header.system));
-    mh.SetOriginatingSystem(ascii(header.system));
-    mh.SetAuthorisation(ascii(header.authorisation));
-    if (writer.Write(partial.c_str()) != IFSelect_RetDone) {
-      std::remove(partial.c_str());
-      throw IoError("cannot write " + partial);
-    }
-  } catch (const Standard_Failure& e) {
-    std::remove(partial.c_str());
-    throw BuildError(std::string("while writing the STEP file: ") + e.GetMessageString());
-  } catch (...) {
-    std::remove(partial.c_str());
-    throw;
+  StepTransferInput input;
+  input.header = header;
+  for (std::size_t i = 0; i < m.parts.size(); ++i) {
+    input.parts.push_back({as_solid(m.parts[i].shape), m.infos[i].name, m.infos[i].colour});
   }
+  for (const auto& in : m.instances) input.instances.push_back({in.part, in.name, in.placement});
+  char message[1024] = "";
+  const int status = transfer_function()(&input, partial.c_str(), message, sizeof message);
+  if (status == step_io_error) throw IoError(message);
+  if (status != step_ok) throw BuildError(message);
   try {
     std::vector<std::array<double, 3>> colours;
     for (const PartInfo& p : m.infos) colours.push_back({p.colour.r, p.colour.g, p.colour.b});

@@ -41,7 +41,6 @@
 #include <XCAFDoc_ShapeTool.hxx>
 #include <gp_Cylinder.hxx>
 
-#include "geometry/occt_guard.hpp"
 #include "geometry/xcaf_document.hpp"
 
 namespace bandforge::drawing {

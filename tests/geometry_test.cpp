@@ -509,7 +509,7 @@ TEST(Checks, ExampleSolidsAreValidAndClear) {
 // whose closest points are inside both, parallel ones side by side and end to end, a closest
 // point clamped to an end, crossing segments, and a segment that is a point.
 TEST(Checks, SegmentDistanceByHand) {
-  auto d = [](gp_Pnt a, gp_Pnt b, gp_Pnt c, gp_Pnt e) { return segment_distance(a, b, c, e); };
+  auto d = [](gp_Pnt p0, gp_Pnt p1, gp_Pnt q0, gp_Pnt q1) { return segment_distance(p0, p1, q0, q1); };
   // Skew: x axis from −1 to 1 at z = 0, y axis from −1 to 1 at z = 3: closest points at the
   // origins, 3 apart.
   EXPECT_NEAR(d({-1, 0, 0}, {1, 0, 0}, {0, -1, 3}, {0, 1, 3}), 3.0, 1e-12);

@@ -3,7 +3,7 @@
 
   install_check.py tree --build BUILD --source SRC --work WORK
       `cmake --install BUILD --prefix /usr` into DESTDIR=WORK/root; checks the installed files
-      (bin/bandforge, libexec/bandforge/bandforge-cad, the man page, README and examples under
+      (bin/bandforge, libexec/bandforge/bandforge-cad and bandforge-step.so, the man page, README and examples under
       share/doc/bandforge/); then, from a working folder outside both trees, runs the installed
       `bandforge --version`, `solve`, `solve --json` and `build` of an installed example and
       requires every output to equal, byte for byte, what the build tree's bandforge writes for
@@ -83,7 +83,8 @@ def tree(a):
     doc = os.path.join(usr, "share", "doc", "bandforge")
     for p in (exe, cad):
         expect(os.access(p, os.X_OK), f"installed and executable: {os.path.relpath(p, root)}")
-    for p in (man, os.path.join(doc, "README.md")):
+    # The STEP writer module beside bandforge-cad (geometry/step_transfer.hpp).
+    for p in (man, os.path.join(doc, "README.md"), os.path.join(os.path.dirname(cad), "bandforge-step.so")):
         expect(os.path.isfile(p), f"installed: {os.path.relpath(p, root)}")
     src_examples = sorted(os.path.relpath(os.path.join(d, f), os.path.join(a.source, "examples"))
                           for d, _, files in os.walk(os.path.join(a.source, "examples"))
@@ -159,6 +160,7 @@ def deb(a):
         expect(re.search(rf"(^|, ){re.escape(needed)}", depends) is not None, f"Depends names {needed}")
     files = run(["dpkg-deb", "-c", pkg]).stdout
     for f in ("./usr/bin/bandforge", "./usr/libexec/bandforge/bandforge-cad",
+              "./usr/libexec/bandforge/bandforge-step.so",
               "./usr/share/man/man1/bandforge.1", "./usr/share/doc/bandforge/README.md",
               "./usr/share/doc/bandforge/examples/bin-hoist.toml"):
         expect(re.search(rf" {re.escape(f)}$", files, re.M) is not None, f"the package holds {f}")

@@ -40,7 +40,6 @@
 #include <XCAFDoc_ShapeTool.hxx>
 
 #include "geometry/brake_model.hpp"
-#include "geometry/occt_guard.hpp"
 #include "geometry/xcaf_document.hpp"
 #include "geometry/step_canonical.hpp"
 #include "geometry/step_header.hpp"
@@ -59,6 +58,7 @@ const std::string kExample = kSource + "/examples/bin-hoist.toml";
 
 using test::fresh_dir;
 using test::run;
+using test::run_capturing_stderr;
 using test::slurp;
 
 std::string name_of(const TDF_Label& l) {
@@ -517,6 +517,45 @@ TEST(BuildCommand, JsonIsTheOnlyThingOnStdout) {
 // `build --sheets separate`: one PDF per sheet in OUT/sheets/, in the order of the set; each is
 // one page of the size of that page in the whole set, with the same text (poppler's pdfinfo and
 // pdftotext read both), and two runs give the same bytes.
+TEST(BuildCommand, StepLibrariesAreLoadedByTheExportAlone) {
+  // OpenCASCADE's STEP libraries are linked by the writer module bandforge-step.so, which the
+  // export's child process loads (geometry/step_transfer.hpp): bandforge-cad itself must not
+  // need them, or every start pays their relocation again (README "Performance").
+  const fs::path bin = fs::path(BANDFORGE_EXE).parent_path();
+  const auto [status, dynamic] = run("readelf -d '" + (bin / "bandforge-cad").string() + "'");
+  ASSERT_EQ(status, 0);
+  EXPECT_NE(dynamic.find("libTKBRep"), std::string::npos) << dynamic;  // the reading works
+  for (const char* lib : {"libTKSTEP", "libTKXSBase", "libTKXDESTEP", "libTKXCAF"}) {
+    EXPECT_EQ(dynamic.find(lib), std::string::npos) << lib;
+  }
+  const auto [module_status, module] = run("readelf -d '" + (bin / "bandforge-step.so").string() + "'");
+  ASSERT_EQ(module_status, 0);
+  EXPECT_NE(module.find("libTKSTEP.so"), std::string::npos) << module;
+}
+
+TEST(BuildCommand, AMissingStepWriterIsNamedAndLeavesNoFiles) {
+  // The executables copied without the module beside them: the build stops with exit 3 naming
+  // the file it looked for, and leaves nothing in the output folder (the drawing's child
+  // process is stopped too).
+  const fs::path dir = fresh_dir("no-step-module");
+  const fs::path bin = fs::path(BANDFORGE_EXE).parent_path();
+  for (const char* exe : {"bandforge", "bandforge-cad"}) {
+    fs::copy_file(bin / exe, dir / exe, fs::copy_options::overwrite_existing);
+  }
+  const auto r = run_capturing_stderr("'" + (dir / "bandforge").string() + "' build '" + kExample +
+                                      "' -o '" + (dir / "out").string() + "'");
+  EXPECT_EQ(r.status, 3) << r.err;
+  EXPECT_NE(r.err.find((dir / "bandforge-step.so").string()), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find("beside bandforge-cad"), std::string::npos) << r.err;
+  EXPECT_TRUE(!fs::exists(dir / "out") || fs::is_empty(dir / "out")) << r.err;
+  // With the module beside them the same copies build.
+  fs::copy_file(bin / "bandforge-step.so", dir / "bandforge-step.so");
+  const auto ok = run_capturing_stderr("'" + (dir / "bandforge").string() + "' build '" + kExample +
+                                       "' -o '" + (dir / "out").string() + "'");
+  EXPECT_EQ(ok.status, 0) << ok.err;
+  EXPECT_TRUE(fs::exists(dir / "out" / "KFW-2207-BR.step"));
+}
+
 TEST(BuildCommand, SeparateSheetsAreThePagesOfTheSet) {
   std::string first;
   for (int pass = 0; pass < 2; ++pass) {
