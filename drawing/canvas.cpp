@@ -5,6 +5,7 @@
 #include <cmath>
 #include <functional>
 #include <string>
+#include <unordered_map>
 #include <vector>
 #include <cstdio>
 #include <numbers>
@@ -64,6 +65,11 @@ struct Canvas::Impl {
   HPDF_Page sheet_page = nullptr;
   HPDF_Font sheet_font = nullptr;
   std::string title, author, subject;
+  /// HPDF_Font_TextWidth's width of each string measured so far [1/1000 em]: the layout
+  /// measures the same words and lines again and again (wrap_lines, tables), and the font's
+  /// glyph look-up was ~4 % of the drawing's time. The width is a sum of the glyphs' integer
+  /// advances, so the remembered value is the one libharu would give again.
+  mutable std::unordered_map<std::string, HPDF_UINT> widths;
 
   /// Runs `draw(page, font)` on the current page, and on its own sheet's page when split.
   template <class F>
@@ -279,10 +285,15 @@ void Canvas::fill_circle(Pt c, double r, Ink ink) {
 double Canvas::text_width(std::string_view utf8, double h) const {
   if (utf8.empty()) return 0;
   const auto& m = *impl_;
-  const HPDF_TextWidth w = HPDF_Font_TextWidth(
-      m.font, reinterpret_cast<const HPDF_BYTE*>(utf8.data()), static_cast<HPDF_UINT>(utf8.size()));
-  m.check(HPDF_OK, "measuring text");
-  return w.width / 1000.0 * h / kCapHeight;
+  std::string key(utf8);
+  auto it = m.widths.find(key);
+  if (it == m.widths.end()) {
+    const HPDF_TextWidth w = HPDF_Font_TextWidth(
+        m.font, reinterpret_cast<const HPDF_BYTE*>(utf8.data()), static_cast<HPDF_UINT>(utf8.size()));
+    m.check(HPDF_OK, "measuring text");
+    it = m.widths.emplace(std::move(key), w.width).first;
+  }
+  return it->second / 1000.0 * h / kCapHeight;
 }
 
 void Canvas::text(Pt at, std::string_view utf8, double h, Align align, double angle, Ink ink) {
