@@ -2,9 +2,9 @@
 //
 // Construction: the wire's lateral surface is built directly as one B-spline surface, not swept:
 // U = the winding angle θ [rad], V = the angle round the wire (a rational quadratic circle, so
-// every U-iso line is an exact circle square to the centreline). In U the poles come from cubic
-// Hermite interpolation of the exact surface rows (points and θ-derivatives, spans per turn by
-// spans_per_turn(): 22 for D 45, double knots: C1), within 5e-4 mm of the true tube.
+// every U-iso line is an exact circle square to the centreline). In U the poles come from quintic
+// Hermite interpolation of the exact surface rows (points, first and second θ-derivatives; about
+// 7 spans per turn for D 45, triple knots: C2), within 5e-4 mm of the true tube.
 // The faces and edges are then assembled by hand (wire_solid): grinding is a trim of the lateral
 // face in its parameter plane along the solved seat-plane curve, not a Boolean. Earlier
 // versions measured: sweeping with BRepOffsetAPI_MakePipe(Shell) was slow (seconds) or invalid
@@ -14,6 +14,7 @@
 #include "geometry/spring_solid.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <numbers>
 #include <sstream>
@@ -60,15 +61,6 @@ constexpr double pi = std::numbers::pi;
 constexpr double kEndClearance = 0.02;   ///< closed end turns: clearance square to the wire / d
 constexpr double kBlendWidth = 0.5;      ///< pitch blend width [turns], centred on the end turn's end
 constexpr double kSurfaceTarget = 5e-4;  ///< aimed-at distance of the surface from the tube [mm]
-
-// Hermite spans of the lateral surface per turn: the fewest whose deviation from the true tube
-// stays within kSurfaceTarget. Measured (spring_solid_test LateralSurfaceLiesOnTheTube, d 2–12,
-// D 12–120): deviation ≈ 4.5e-6 · R · (32/n)⁴ mm, the fourth power of cubic Hermite
-// interpolation. Fewer spans make a smaller STEP file (the spring was 85 % of the example's
-// points at 32 per turn) and a faster build; the test holds every spring to 1e-3 mm.
-int spans_per_turn(double R) {
-  return std::max(12, static_cast<int>(std::ceil(32 * std::pow(4.5e-6 * R / kSurfaceTarget, 0.25))));
-}
 
 // Smoothstep S(x) = 3x² − 2x³ on [0, 1] (0 before, 1 after), its derivative and its integral.
 double step(double x) { return x <= 0 ? 0 : x >= 1 ? 1 : x * x * (3 - 2 * x); }
@@ -202,49 +194,133 @@ Centreline plan(const SpringDims& s) {
 }
 
 // The lateral surface of the wire for θ in [th0, th1] (see the file comment).
+//
+// In U: quintic Hermite interpolation of the surface rows (the section circle's nine control
+// points as functions of θ) from their values, first and second θ-derivatives at the nodes,
+// one Bézier piece per span joined with C2 continuity (knots of multiplicity 3: the Hermite data
+// agree on both sides). The pitch blends' ends are nodes too: there the third derivative of z
+// jumps and with it the rows' second derivative (the section frame turns with the pitch), so
+// those knots keep multiplicity 4 (C1) and each side takes its own second derivative. Quintic
+// Hermite error ≤ h⁶/46080 · max|P⁽⁶⁾| for span h (the sixth derivative of cos θ about a radius
+// R + r is R + r): spans from that bound at kSurfaceTarget, about 7 per turn for D 45 where the
+// cubic needed 22 (a third of the control points, half the STEP file).
+int quintic_spans_per_turn(double reach) {
+  const double h = std::pow(46080 * kSurfaceTarget / reach, 1.0 / 6);
+  return std::max(4, static_cast<int>(std::ceil(2 * pi / h - 1e-9)));
+}
+
 Handle(Geom_BSplineSurface) tube_surface(const Centreline& c, double th0, double th1) {
-  const int n =
-      std::max(2, static_cast<int>(std::ceil((th1 - th0) / (2 * pi) * spans_per_turn(c.R) - 1e-9)));
-  const double h = (th1 - th0) / n;
+  // Breaks: the ends and the pitch blends' edges strictly inside; each piece in equal spans.
+  std::vector<double> breaks{th0};
+  std::vector<bool> blend_edge{false};
+  if (c.p_act != c.p_end) {
+    for (double t : {c.t1 - c.w / 2, c.t1 + c.w / 2, c.t2 - c.w / 2, c.t2 + c.w / 2}) {
+      const double th = 2 * pi * t;
+      if (th > breaks.back() + 1e-9 && th < th1 - 1e-9) {
+        breaks.push_back(th);
+        blend_edge.push_back(true);
+      }
+    }
+  }
+  breaks.push_back(th1);
+  blend_edge.push_back(false);
+  const int per_turn = quintic_spans_per_turn(c.R + c.r);
+  std::vector<double> nodes{th0};
+  std::vector<bool> c1_node{false};  // a blend edge: multiplicity 4
+  for (std::size_t k = 0; k + 1 < breaks.size(); ++k) {
+    const double a = breaks[k], b = breaks[k + 1];
+    const int n = std::max(1, static_cast<int>(std::ceil((b - a) / (2 * pi) * per_turn - 1e-9)));
+    for (int i = 1; i <= n; ++i) {
+      nodes.push_back(i == n ? b : a + (b - a) * i / n);
+      c1_node.push_back(i == n && blend_edge[k + 1]);
+    }
+  }
+  const int spans = static_cast<int>(nodes.size()) - 1;
   // Unit circle as a rational quadratic: 9 poles on the square, weights 1 and √2/2.
   const double qx[9] = {1, 1, 0, -1, -1, -1, 0, 1, 1};
   const double qy[9] = {0, 1, 1, 1, 0, -1, -1, -1, 0};
   const double wc = std::sqrt(0.5);
-  const int nu = 2 * n + 2;
-  TColgp_Array2OfPnt poles(1, nu, 1, 9);
-  TColStd_Array2OfReal weights(1, nu, 1, 9);
-  for (int k = 0; k <= n; ++k) {
-    const double th = k == n ? th1 : th0 + k * h;
+  // Row j's point and θ-derivative at θ: P = C + r(a·qx + b·qy).
+  auto row = [&](double th, int j, gp_Vec& P, gp_Vec& dP) {
     const double ct = std::cos(th), st = std::sin(th);
     const gp_Vec C(c.R * ct, c.R * st, c.z(th / (2 * pi)));
     const gp_Vec dC(-c.R * st, c.R * ct, c.dz(th));
     gp_Vec a, b, da, db;
     c.frame(th, a, b, da, db);
+    P = C + (a * qx[j] + b * qy[j]) * c.r;
+    dP = dC + (da * qx[j] + db * qy[j]) * c.r;
+  };
+  // Second derivative from the analytic first by a second-order one-sided difference, on the
+  // side of the span (side −1: the span before θ, +1: after), so that it never straddles a
+  // blend edge; δ = 1e-5 rad: truncation ~1e-10, round-off ~1e-10 of |P''|.
+  auto second = [&](double th, int j, int side) {
+    constexpr double delta = 1e-5;
+    gp_Vec P, d0, d1, d2;
+    row(th, j, P, d0);
+    row(th + side * delta, j, P, d1);
+    row(th + 2 * side * delta, j, P, d2);
+    return (d1 * 4 - d0 * 3 - d2) * (side / (2 * delta));
+  };
+  // Bézier poles of every span, then the B-spline's: at a C2 node (multiplicity 3) the left
+  // span's b4, the joint and the right span's b1 collapse into one de Boor point D, with b4 on
+  // b3–D and b1 on D–b2 in the ratio of the spans (the basis function of D spans only those
+  // two); at a blend edge (multiplicity 4) b4 and b1 stay and the joint, between them, goes.
+  std::vector<std::array<gp_Vec, 6>> bez(static_cast<std::size_t>(spans) * 9);
+  for (int k = 0; k < spans; ++k) {
+    const double u0 = nodes[k], u1 = nodes[k + 1], h = u1 - u0;
     for (int j = 0; j < 9; ++j) {
-      const gp_Vec P = C + (a * qx[j] + b * qy[j]) * c.r;
-      const gp_Vec dP = (dC + (da * qx[j] + db * qy[j]) * c.r) * (h / 3);
-      const double w = j % 2 == 1 ? wc : 1.0;
-      // Poles of the C1 cubic with double knots: P − h/3·P' and P + h/3·P' about each node
-      // (indices 2k+1 and 2k+2), the end nodes themselves first and last.
-      if (k > 0) {
-        poles(2 * k + 1, j + 1) = gp_Pnt((P - dP).XYZ());
-        weights(2 * k + 1, j + 1) = w;
+      gp_Vec P0, D0, P1, D1;
+      row(u0, j, P0, D0);
+      row(u1, j, P1, D1);
+      const gp_Vec S0 = second(u0, j, +1), S1 = second(u1, j, -1);
+      bez[k * 9 + j] = {P0,
+                        P0 + D0 * (h / 5),
+                        P0 + D0 * (2 * h / 5) + S0 * (h * h / 20),
+                        P1 - D1 * (2 * h / 5) + S1 * (h * h / 20),
+                        P1 - D1 * (h / 5),
+                        P1};
+    }
+  }
+  int nu = 3 * spans + 3;
+  for (int k = 1; k < spans; ++k) nu += c1_node[k] ? 1 : 0;
+  TColgp_Array2OfPnt poles(1, nu, 1, 9);
+  TColStd_Array2OfReal weights(1, nu, 1, 9);
+  for (int j = 0; j < 9; ++j) {
+    const double w = j % 2 == 1 ? wc : 1.0;
+    int i = 0;
+    auto put = [&](const gp_Vec& v) {
+      ++i;
+      poles(i, j + 1) = gp_Pnt(v.XYZ());
+      weights(i, j + 1) = w;
+    };
+    for (int k = 0; k < spans; ++k) {
+      const auto& b = bez[k * 9 + j];
+      if (k == 0) {
+        put(b[0]);
+        put(b[1]);
       }
-      if (k < n) {
-        poles(2 * k + 2, j + 1) = gp_Pnt((P + dP).XYZ());
-        weights(2 * k + 2, j + 1) = w;
-      }
-      if (k == 0 || k == n) {
-        poles(k == 0 ? 1 : nu, j + 1) = gp_Pnt(P.XYZ());
-        weights(k == 0 ? 1 : nu, j + 1) = w;
+      put(b[2]);
+      put(b[3]);
+      if (k == spans - 1) {
+        put(b[4]);
+        put(b[5]);
+      } else if (c1_node[k + 1]) {
+        put(b[4]);
+        put(bez[(k + 1) * 9 + j][1]);
+      } else {
+        const auto& n = bez[(k + 1) * 9 + j];
+        const double hl = nodes[k + 1] - nodes[k], hr = nodes[k + 2] - nodes[k + 1];
+        const gp_Vec from_left = b[3] + (b[4] - b[3]) * ((hl + hr) / hl);
+        const gp_Vec from_right = n[2] + (n[1] - n[2]) * ((hl + hr) / hr);
+        put((from_left + from_right) * 0.5);
       }
     }
   }
-  TColStd_Array1OfReal uk(1, n + 1);
-  TColStd_Array1OfInteger um(1, n + 1);
-  for (int k = 0; k <= n; ++k) {
-    uk(k + 1) = k == n ? th1 : th0 + k * h;
-    um(k + 1) = k == 0 || k == n ? 4 : 2;
+  TColStd_Array1OfReal uk(1, spans + 1);
+  TColStd_Array1OfInteger um(1, spans + 1);
+  for (int k = 0; k <= spans; ++k) {
+    uk(k + 1) = nodes[k];
+    um(k + 1) = k == 0 || k == spans ? 6 : c1_node[k] ? 4 : 3;
   }
   TColStd_Array1OfReal vk(1, 5);
   TColStd_Array1OfInteger vm(1, 5);
@@ -252,7 +328,8 @@ Handle(Geom_BSplineSurface) tube_surface(const Centreline& c, double th0, double
     vk(i + 1) = i * pi / 2;
     vm(i + 1) = i == 0 || i == 4 ? 3 : 2;
   }
-  return new Geom_BSplineSurface(poles, weights, uk, vk, um, vm, 3, 2, false, false);
+  Handle(Geom_BSplineSurface) S = new Geom_BSplineSurface(poles, weights, uk, vk, um, vm, 5, 2, false, false);
+  return S;
 }
 
 // Where the seat plane z = seat cuts the lateral surface S near its end u_end: the 2D curve

@@ -313,6 +313,79 @@ TEST(UngroundEnds, LateralSurfaceLiesOnTheTube) {
   }
 }
 
+TEST(SquaredEnds, LateralSurfaceLiesOnTheTubeThroughThePitchBlends) {
+  // Squared ends: closed end turns blended into the active pitch (the model in
+  // geometry/spring_solid.hpp: p_end·cos α_end = 1.02·d, a smoothstep on the pitch over half a
+  // turn centred on the end of each end turn, the end disc touching the seat plane). The
+  // surface is held to the tube round that centreline as the plain springs' are, the blends
+  // included (there the rows' second derivative jumps: the surface has knots at the blends' ends).
+  struct Case {
+    double d, D, na, L;
+  };
+  for (const Case c : {Case{6, 45, 8, 100}, Case{5, 59.5, 11.5, 240}, Case{12, 120, 6, 260}}) {
+    const SpringDims s = spring(SpringEnds::squared, c.d, c.D, c.na, c.L);
+    const double Rc = c.D / 2, rc = c.d / 2, Nt = s.total_coils;
+    const auto cos_alpha = [&](double p) { return pi * c.D / std::hypot(pi * c.D, p); };
+    double pe = 1.02 * c.d;
+    for (int i = 0; i < 40; ++i) pe = 1.02 * c.d / cos_alpha(pe);
+    const double z0 = rc * cos_alpha(pe);
+    const double pa = (c.L - 2 * z0 - 2 * pe) / c.na;
+    ASSERT_GT(pa, pe) << "the case must have a blend";
+    const double t1 = 1, t2 = Nt - 1, w = 0.5;
+    const auto S = [](double x) { return x <= 0 ? 0 : x >= 1 ? 1 : x * x * (3 - 2 * x); };
+    const auto dS = [](double x) { return x <= 0 || x >= 1 ? 0 : 6 * x * (1 - x); };
+    const auto iS = [](double x) { return x <= 0 ? 0 : x >= 1 ? x - 0.5 : x * x * x - 0.5 * x * x * x * x; };
+    // Centreline z(θ) and its θ-derivatives, t = θ/2π turns.
+    const auto z = [&](double th) {
+      const double t = th / (2 * pi);
+      return z0 + pe * t + (pa - pe) * w * (iS((t - t1) / w + 0.5) - iS((t - t2) / w + 0.5));
+    };
+    const auto z1 = [&](double th) {
+      const double t = th / (2 * pi);
+      return (pe + (pa - pe) * (S((t - t1) / w + 0.5) - S((t - t2) / w + 0.5))) / (2 * pi);
+    };
+    const auto z2 = [&](double th) {
+      const double t = th / (2 * pi);
+      return (pa - pe) / w * (dS((t - t1) / w + 0.5) - dS((t - t2) / w + 0.5)) / (4 * pi * pi);
+    };
+    const TopoDS_Shape shape = make_spring(s);
+    double worst = 0;
+    int samples = 0;
+    for (TopExp_Explorer e(shape, TopAbs_FACE); e.More(); e.Next()) {
+      const BRepAdaptor_Surface a(TopoDS::Face(e.Current()), false);
+      if (a.GetType() != GeomAbs_BSplineSurface) continue;
+      const int nu = 64 * static_cast<int>(std::ceil(Nt)), nv = 16;
+      for (int i = 0; i <= nu; ++i) {
+        const double u = a.FirstUParameter() + (a.LastUParameter() - a.FirstUParameter()) * i / nu;
+        for (int j = 0; j < nv; ++j) {
+          const double v = a.FirstVParameter() + (a.LastVParameter() - a.FirstVParameter()) * j / nv;
+          const gp_Vec q(a.Value(u, v).XYZ());
+          double th = u;  // nearest centreline point: Newton on (q − C(θ))·C'(θ) = 0
+          for (int it = 0; it < 40; ++it) {
+            const gp_Vec cc(Rc * std::cos(th), Rc * std::sin(th), z(th));
+            const gp_Vec c1(-Rc * std::sin(th), Rc * std::cos(th), z1(th));
+            const gp_Vec c2(-Rc * std::cos(th), -Rc * std::sin(th), z2(th));
+            const gp_Vec wv = q - cc;
+            const double step = wv.Dot(c1) / (-c1.Dot(c1) + wv.Dot(c2));
+            th -= step;
+            if (std::abs(step) < 1e-13) break;
+          }
+          const gp_Vec cc(Rc * std::cos(th), Rc * std::sin(th), z(th));
+          worst = std::max(worst, std::abs((q - cc).Magnitude() - rc));
+          ++samples;
+        }
+      }
+    }
+    EXPECT_GT(samples, 3000);
+    // Within the 5e-4 mm the surface aims at (geometry/spring_solid.cpp kSurfaceTarget), not only
+    // the plain test's 1e-3: this is what the knots at the blends' ends buy (without them the
+    // second case measured 8.1e-4 mm).
+    EXPECT_LT(worst, 5e-4) << "d " << c.d << " D " << c.D;
+    std::cout << "[ surface  ] squared d " << c.d << " D " << c.D << ": " << samples << " points, farthest "
+              << worst << " mm from the tube\n";
+  }
+}
+
 TEST(Limits, LengthAtOrBelowSolidLengthThrows) {
   // Squared-ground, N_t = 10: L_s = d·N_t = 60 mm (Table 10-1). At L_s the pitch is d: no clearance.
   EXPECT_THROW(make_spring(spring(SpringEnds::squared_ground, d, D, Na, 59)), std::invalid_argument);
