@@ -2,8 +2,10 @@
 // checks and the STEP assembly, the PDF drawing and calculation sheet, and the fab/ flat patterns.
 // Outputs are written into a staging directory inside OUTDIR and moved into place only when
 // every step has succeeded, so a failed build leaves no partial files behind.
+#include <sys/resource.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cerrno>
 #include <cstdio>
 #include <cstdlib>
@@ -49,6 +51,10 @@ struct BuildCommand {
   std::string dxf_version = "r2000";  ///< flat patterns: "r2000" (AC1015) or "r12" (AC1009)
   std::string units = "si";           ///< units on the PDF drawing: "si" or "us"
   std::string sheets = "one";         ///< "one" PDF, or also "separate" PDFs, one per sheet
+  /// The `build` command itself, whose process ends with the build: after forking the drawing
+  /// it lowers its own priority (see build_outputs). Off for the builds `propose` runs one after
+  /// another in its process, whose priority could not be raised back.
+  bool last_in_process = false;
 };
 
 #ifdef BANDFORGE_HAVE_GEOMETRY
@@ -243,6 +249,17 @@ void build_outputs(const BuildCommand& cmd) {
     return std::to_string(sheet_pdfs.size());
   });
 #endif
+  // The drawing's process has the most to do (~270 ms of CPU against the checks' ~200 and the
+  // export's ~110, README "Performance"), and with three processes on two cores a fair share
+  // let it finish last, alone, after the others. This process and the export's (forked below,
+  // inheriting it) step back by 5 nice levels, so the scheduler gives the drawing a core of its
+  // own and the other two share the second: 362 against 401 ms and 372 against 392 ms median
+  // in alternated runs. A hint only: a refusal (RLIMIT_NICE, a sandbox) changes nothing else.
+  if (cmd.last_in_process) {
+    errno = 0;
+    const int nice_now = ::getpriority(PRIO_PROCESS, 0);
+    if (errno == 0) ::setpriority(PRIO_PROCESS, 0, std::min(19, nice_now + 5));
+  }
   geom::BuildOptions options;
   options.released = cmd.released;
   // The solids first; then the STEP export in a child process, on its copy of them, while this
@@ -399,7 +416,11 @@ void setup_build(CLI::App& app) {
       ->check(CLI::IsMember({"one", "separate"}));
   sub->add_option("--units", cmd->units, "units on the PDF drawing: si (mm, N, MPa) or us (in, lbf, psi)")
       ->check(CLI::IsMember({"si", "us"}));
-  sub->callback([cmd] { run_build(*cmd); });
+  sub->callback([cmd] {
+    BuildCommand whole = *cmd;
+    whole.last_in_process = true;
+    run_build(whole);
+  });
 }
 
 }  // namespace bandforge::cli
