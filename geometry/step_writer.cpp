@@ -23,11 +23,9 @@
 
 #include <array>
 #include <cstdio>
-#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
-#include <stdexcept>
 #include <string>
 
 #include <TopExp_Explorer.hxx>
@@ -65,10 +63,7 @@ using TransferFunction = int (*)(const StepTransferInput*, const char*, char*, s
 // Loaded once per process, with lazy binding: RTLD_NOW would bind every function of the STEP
 // libraries at once (~12 000 more relocations, ~10 ms) where the export calls a few hundred.
 // A missing or broken module is a BuildError naming the file.
-TransferFunction transfer_function() {
-  if (bandforge_step_transfer_v1 != nullptr) return &bandforge_step_transfer_v1;
-  static TransferFunction loaded = nullptr;
-  if (loaded != nullptr) return loaded;
+TransferFunction load_transfer_module() {
   std::error_code ec;
   const std::filesystem::path exe = std::filesystem::read_symlink("/proc/self/exe", ec);
   const std::filesystem::path module = exe.parent_path() / step_module_file;
@@ -78,10 +73,18 @@ TransferFunction transfer_function() {
     throw BuildError("cannot load the STEP writer " + module.string() + ": " + (why ? why : "unknown error") +
                      " (it is installed beside bandforge-cad)");
   }
-  loaded = reinterpret_cast<TransferFunction>(::dlsym(handle, step_entry_symbol));
-  if (loaded == nullptr) {
+  const auto entry = reinterpret_cast<TransferFunction>(::dlsym(handle, step_entry_symbol));
+  if (entry == nullptr) {
     throw BuildError("the STEP writer " + module.string() + " has no entry point " + step_entry_symbol);
   }
+  return entry;
+}
+
+TransferFunction transfer_function() {
+  if (bandforge_step_transfer_v1 != nullptr) return &bandforge_step_transfer_v1;
+  // A function-local static: loaded once even when threads export at once; a failed load
+  // throws and is tried again by the next export.
+  static const TransferFunction loaded = load_transfer_module();
   return loaded;
 }
 
