@@ -248,18 +248,18 @@ void build_outputs(const BuildCommand& cmd) {
     }
     return std::to_string(sheet_pdfs.size());
   });
-#endif
   // The drawing's process has the most to do (~270 ms of CPU against the checks' ~200 and the
   // export's ~110, README "Performance"), and with three processes on two cores a fair share
   // let it finish last, alone, after the others. This process and the export's (forked below,
   // inheriting it) step back by 5 nice levels, so the scheduler gives the drawing a core of its
   // own and the other two share the second: 362 against 401 ms and 372 against 392 ms median
-  // in alternated runs. A hint only: a refusal (RLIMIT_NICE, a sandbox) changes nothing else.
+  // in alternated runs. A hint only: if the system refuses it, nothing else changes.
   if (cmd.last_in_process) {
     errno = 0;
     const int nice_now = ::getpriority(PRIO_PROCESS, 0);
     if (errno == 0) ::setpriority(PRIO_PROCESS, 0, std::min(19, nice_now + 5));
   }
+#endif
   geom::BuildOptions options;
   options.released = cmd.released;
   // The solids first; then the STEP export in a child process, on its copy of them, while this
